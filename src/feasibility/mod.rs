@@ -1,0 +1,1 @@
+//! feasibility layer (see DEVELOPERS.md).

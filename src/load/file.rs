@@ -1,0 +1,1 @@
+//! Hourly load from a CSV file. Filled by the load work.

@@ -1,0 +1,1 @@
+//! Occupancy and set-point schedules. Filled by the load work.

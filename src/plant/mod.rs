@@ -1,0 +1,1 @@
+//! plant layer (see DEVELOPERS.md).

@@ -1,0 +1,1 @@
+//! routes layer (see DEVELOPERS.md).

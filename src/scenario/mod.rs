@@ -1,0 +1,1 @@
+//! scenario layer (see DEVELOPERS.md).

@@ -1,0 +1,1 @@
+//! Solar position by SPA (solar-positioning crate) and air mass. Filled by the sun work.

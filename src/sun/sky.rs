@@ -1,0 +1,1 @@
+//! Plane-of-array irradiance: isotropic, HDKR, Perez 1990. Filled by the sun work.

@@ -1,0 +1,1 @@
+//! Beam/diffuse decomposition of global horizontal irradiance. Filled by the weather work.

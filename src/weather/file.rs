@@ -1,0 +1,1 @@
+//! Weather from a CSV file. Filled by the weather work.

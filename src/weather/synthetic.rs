@@ -1,0 +1,1 @@
+//! Synthetic weather year from monthly normals. Filled by the weather work.
