@@ -1,1 +1,145 @@
-//! feasibility layer (see DEVELOPERS.md).
+//! From hourly records to monthly and annual figures, defined once and used everywhere.
+//!
+//! Solar fraction is the share of the driving heat used that came from the sun:
+//! `SF = Q_solar,used / (Q_solar,used + Q_backup)`, over the route's driving heat and the heat
+//! demand served together (the fraction of the load supplied by solar energy, as Duffie &
+//! Beckman, *Solar Engineering of Thermal Processes*, 4th ed., define the solar fraction of a
+//! thermal system). Seasonal COPs are ratios of sums, never means of hourly ratios.
+
+use crate::plant::HourRecord;
+use crate::weather::calendar;
+use serde::Serialize;
+
+/// Sums and ratios over a set of hours (a month or the year). Keys match the hourly CSV.
+#[derive(Debug, Clone, Default, Serialize)]
+pub struct Totals {
+    pub load_kwh: f64,
+    pub cooling_kwh: f64,
+    pub unmet_kwh: f64,
+    pub solar_heat_kwh: f64,
+    pub heat_to_route_kwh: f64,
+    pub route_solar_kwh: f64,
+    pub backup_heat_kwh: f64,
+    pub heat_demand_kwh: f64,
+    pub heat_demand_solar_kwh: f64,
+    pub electricity_kwh: f64,
+    pub pump_kwh: f64,
+    pub fuel_kwh: f64,
+    pub heat_rejected_kwh: f64,
+    pub store_loss_kwh: f64,
+    /// Seasonal thermal COP: cooling / driving heat to the route.
+    pub cop_thermal: Option<f64>,
+    /// Seasonal electric COP: cooling / all electricity.
+    pub cop_electric: Option<f64>,
+    /// Solar fraction of all driving heat used (route + heat demand).
+    pub solar_fraction: Option<f64>,
+    /// Solar fraction of the heat demand alone.
+    pub solar_fraction_heat_demand: Option<f64>,
+    /// Heat collected per m² of gross collector area, kWh/m².
+    pub collector_yield_kwh_m2: Option<f64>,
+    pub stagnation_hours: u32,
+    pub unmet_hours: u32,
+    pub pump_hours: f64,
+    /// Largest hourly store balance error relative to the energy stored.
+    pub max_balance_error_rel: f64,
+}
+
+fn ratio(num: f64, den: f64) -> Option<f64> {
+    (den > 1e-9).then(|| num / den)
+}
+
+impl Totals {
+    /// Sum `records`; `gross_m2` is the option's gross collector area (0 without a field).
+    pub fn of(records: &[HourRecord], gross_m2: f64) -> Totals {
+        let mut t = Totals::default();
+        for r in records {
+            t.load_kwh += r.load_kwh;
+            t.cooling_kwh += r.cooling_kwh;
+            t.unmet_kwh += r.unmet_kwh;
+            t.solar_heat_kwh += r.solar_heat_kwh;
+            t.heat_to_route_kwh += r.heat_to_route_kwh;
+            t.route_solar_kwh += r.route_solar_kwh;
+            t.backup_heat_kwh += r.backup_heat_kwh;
+            t.heat_demand_kwh += r.heat_demand_kwh;
+            t.heat_demand_solar_kwh += r.heat_demand_solar_kwh;
+            t.electricity_kwh += r.electricity_kwh;
+            t.pump_kwh += r.pump_kwh;
+            t.fuel_kwh += r.fuel_kwh;
+            t.heat_rejected_kwh += r.heat_rejected_kwh;
+            t.store_loss_kwh += r.store_loss_kwh;
+            t.stagnation_hours += u32::from(r.stagnation);
+            t.unmet_hours += u32::from(r.unmet_kwh > 1e-6);
+            t.pump_hours += r.pump_hours;
+            t.max_balance_error_rel = t.max_balance_error_rel.max(r.balance_error_rel);
+        }
+        t.cop_thermal = ratio(t.cooling_kwh, t.heat_to_route_kwh);
+        t.cop_electric = ratio(t.cooling_kwh, t.electricity_kwh);
+        let solar_used = t.route_solar_kwh + t.heat_demand_solar_kwh;
+        t.solar_fraction = ratio(solar_used, t.heat_to_route_kwh + t.heat_demand_kwh);
+        t.solar_fraction_heat_demand = ratio(t.heat_demand_solar_kwh, t.heat_demand_kwh);
+        t.collector_yield_kwh_m2 = ratio(t.solar_heat_kwh, gross_m2);
+        t
+    }
+}
+
+/// Monthly totals, January first.
+pub fn monthly(records: &[HourRecord], gross_m2: f64) -> Vec<Totals> {
+    let mut out = Vec::with_capacity(12);
+    let mut start = 0;
+    for m in 1..=12u32 {
+        let end = records[start..]
+            .iter()
+            .position(|r| calendar(r.hour).0 != m)
+            .map_or(records.len(), |p| start + p);
+        out.push(Totals::of(&records[start..end], gross_m2));
+        start = end;
+    }
+    out
+}
+
+/// An option's results.
+#[derive(Debug, Clone)]
+pub struct OptionResult {
+    pub option: String,
+    pub route: &'static str,
+    pub description: Option<String>,
+    pub gross_m2: f64,
+    pub store_m3: Option<f64>,
+    pub annual: Totals,
+    pub monthly: Vec<Totals>,
+    pub hours: Vec<HourRecord>,
+}
+
+impl OptionResult {
+    /// Aggregate one option's hours.
+    pub fn new(
+        option: String,
+        route: &'static str,
+        description: Option<String>,
+        gross_m2: f64,
+        store_m3: Option<f64>,
+        hours: Vec<HourRecord>,
+    ) -> OptionResult {
+        OptionResult {
+            annual: Totals::of(&hours, gross_m2),
+            monthly: monthly(&hours, gross_m2),
+            option,
+            route,
+            description,
+            gross_m2,
+            store_m3,
+            hours,
+        }
+    }
+}
+
+/// The whole evaluation of a scenario.
+#[derive(Debug, Clone)]
+pub struct Evaluation {
+    pub scenario: String,
+    pub reference: String,
+    pub options: Vec<OptionResult>,
+    /// Where the weather came from, and whether beam/diffuse were derived.
+    pub weather_origin: String,
+    pub load_origin: String,
+}

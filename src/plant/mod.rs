@@ -1,1 +1,277 @@
-//! plant layer (see DEVELOPERS.md).
+//! The hour loop: couples each option's solar field, store, cooling route, heat demand and
+//! backup boiler, and keeps the energy books.
+//!
+//! Per hour, in `SUBSTEPS` equal sub-steps (15 min): the differential thermostat decides
+//! whether the collector pump runs; the field is solved for its outlet at the store's bottom
+//! temperature (through the loop heat exchanger when there is one); the route's and the heat
+//! demand's draws are planned from the store's top temperature; the store is stepped with all
+//! streams at once (it sub-steps further inside where a node would go unstable). What the
+//! store could not give, the boiler gives. Every hour records the store's balance
+//! `in − out − losses − Δstored` as its closure error.
+
+pub mod record;
+pub mod store;
+
+pub use record::HourRecord;
+
+use crate::components::boiler::Boiler;
+use crate::components::field::Field;
+use crate::components::tank::Stream;
+use crate::routes::{HeatSupplied, HourConditions, Route, RouteHour};
+use crate::scenario::schema::HeatPriority;
+use crate::sun::sky::PlaneIrradiance;
+use store::{MAX_STREAMS, Store, charge, draw};
+
+/// Sub-steps per hour of the plant loop.
+pub const SUBSTEPS: usize = 4;
+const DT_S: f64 = 3600.0 / SUBSTEPS as f64;
+const J_PER_KWH: f64 = 3.6e6;
+
+/// The building's heat demand in one hour (served by the store where the option says so).
+#[derive(Debug, Clone, Copy, Default)]
+pub struct HeatDemandHour {
+    /// Domestic hot water heat, kWh, to raise `t_cold_c` to `t_dhw_c`.
+    pub dhw_kwh: f64,
+    pub t_cold_c: f64,
+    pub t_dhw_c: f64,
+    /// Space heating, kWh, on a loop at `t_sh_supply_c` / `t_sh_return_c`.
+    pub sh_kwh: f64,
+    pub t_sh_supply_c: f64,
+    pub t_sh_return_c: f64,
+}
+
+impl HeatDemandHour {
+    pub fn total_kwh(&self) -> f64 {
+        self.dhw_kwh + self.sh_kwh
+    }
+}
+
+/// Collector field, store and their controls.
+#[derive(Debug, Clone)]
+pub struct SolarLoop {
+    pub field: Field,
+    /// Plane irradiance on the field, one per hour of the year (computed once per scenario).
+    pub poa: Vec<PlaneIrradiance>,
+    /// Collector-loop heat exchanger effectiveness (indirect loop), equal capacity rates on
+    /// both sides; `None` for a direct loop.
+    pub hx_effectiveness: Option<f64>,
+    /// Pump electric power while running, W.
+    pub pump_w: f64,
+    pub dt_on_k: f64,
+    pub dt_off_k: f64,
+    /// Collection stops at this store-top temperature, °C.
+    pub t_max_c: f64,
+    /// Plant room, °C.
+    pub t_room_c: f64,
+    /// Specific heat of the store water and loop fluid, J/(kg·K).
+    pub cp_j_kgk: f64,
+    /// The store at the start of the year.
+    pub store: Store,
+}
+
+/// One option ready to run.
+pub struct PlantOption {
+    pub name: String,
+    pub route: Box<dyn Route>,
+    pub solar: Option<SolarLoop>,
+    pub boiler: Boiler,
+    pub serves_heat_demand: bool,
+}
+
+/// Everything the loop reads that is common to all options.
+pub struct YearInputs<'a> {
+    pub conditions: &'a [HourConditions],
+    pub ghi_w_m2: &'a [f64],
+    pub heat_demand: &'a [HeatDemandHour],
+    pub priority: HeatPriority,
+}
+
+/// A planned draw on the store for one sub-step.
+#[derive(Debug, Clone, Copy, Default)]
+struct Draw {
+    /// Heat wanted in the sub-step, J.
+    want_j: f64,
+    /// Store stream (zero flow when the store cannot help).
+    flow_kg_s: f64,
+    t_return_c: f64,
+}
+
+/// Plan a draw of `power_w` at supply `t_need_c` returning at `t_return_c` from a store whose
+/// top is at `t_top_c`: when the top is hot enough a mixing valve takes only what is needed;
+/// when it is warmer than the return but short of the need, the full flow passes and the
+/// boiler lifts it; when it is colder than the return, the store is bypassed.
+fn plan_draw(power_w: f64, t_need_c: f64, t_return_c: f64, t_top_c: f64, cp: f64) -> Draw {
+    let want_j = power_w * DT_S;
+    if power_w <= 0.0 || t_top_c <= t_return_c + 0.1 {
+        return Draw { want_j, flow_kg_s: 0.0, t_return_c };
+    }
+    let lift = if t_top_c >= t_need_c { t_top_c - t_return_c } else { t_need_c - t_return_c };
+    Draw { want_j, flow_kg_s: power_w / (cp * lift), t_return_c }
+}
+
+/// Run one option over the year; one record per hour.
+pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
+    let mut solar = opt.solar.clone();
+    let mut pump_on = false;
+    let mut out = Vec::with_capacity(y.conditions.len());
+    for (i, c) in y.conditions.iter().enumerate() {
+        let hd = if opt.serves_heat_demand { y.heat_demand[i] } else { HeatDemandHour::default() };
+        let hd_all = y.heat_demand[i];
+        let mut rec = HourRecord {
+            hour: i,
+            t_amb_c: c.t_db_c,
+            ghi_w_m2: y.ghi_w_m2[i],
+            load_kwh: c.load.cooling_kw(),
+            heat_demand_kwh: hd_all.total_kwh(),
+            ..HourRecord::default()
+        };
+        let t_top0 = solar.as_ref().map(|s| s.store.t_top_c());
+        let request = opt.route.heat_request(c, t_top0);
+        let mut route_solar_j = 0.0;
+        let mut demand_solar_j = 0.0;
+        if let Some(s) = solar.as_mut() {
+            let poa = s.poa[i];
+            rec.poa_w_m2 = poa.total_w_m2();
+            let stored0 = s.store.stored_j();
+            let mut q_collected_j = 0.0;
+            let mut q_loss_j = 0.0;
+            let mut q_in_sum_j = 0.0;
+            let mut delta_j = 0.0;
+            for _ in 0..SUBSTEPS {
+                let (t_top, t_bot) = (s.store.t_top_c(), s.store.t_bottom_c());
+                // Collector loop: differential thermostat with dead-band, store maximum.
+                let mut streams = [Stream { flow_kg_s: 0.0, t_in_c: 0.0, inlet: crate::components::tank::Inlet::Top }; MAX_STREAMS];
+                let mut n = 1;
+                let gain_possible = rec.poa_w_m2 > 0.0
+                    && s.field.no_flow_temp_c(poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, c.t_db_c)
+                        > t_bot + s.dt_on_k;
+                if t_top >= s.t_max_c {
+                    if gain_possible {
+                        rec.stagnation = true;
+                    }
+                    pump_on = false;
+                } else if !pump_on && gain_possible {
+                    pump_on = true;
+                }
+                if pump_on {
+                    let (flow, t_to_store) = collector_loop(s, &poa, t_bot, c.t_db_c);
+                    if t_to_store - t_bot < s.dt_off_k {
+                        pump_on = false;
+                    } else {
+                        streams[0] = charge(flow, t_to_store);
+                        rec.pump_hours += 1.0 / SUBSTEPS as f64;
+                    }
+                }
+                // Draws: the route's, then hot water, then space heating, in priority order.
+                let mut draws = [Draw::default(); 3];
+                if let Some(r) = request {
+                    draws[0] = plan_draw(r.heat_kwh * 1000.0, r.t_supply_c, r.t_return_c, t_top, s.cp_j_kgk);
+                }
+                draws[1] = plan_draw(hd.dhw_kwh * 1000.0, hd.t_dhw_c, hd.t_cold_c, t_top, s.cp_j_kgk);
+                draws[2] = plan_draw(hd.sh_kwh * 1000.0, hd.t_sh_supply_c, hd.t_sh_return_c, t_top, s.cp_j_kgk);
+                if let Some(r) = request {
+                    let route_short = t_top < r.t_supply_c;
+                    match y.priority {
+                        // Keep the hot layer for the route: heat demand only draws when the
+                        // store can give the route all it needs.
+                        HeatPriority::CoolingFirst if route_short && r.heat_kwh > 0.0 => {
+                            draws[1].flow_kg_s = 0.0;
+                            draws[2].flow_kg_s = 0.0;
+                        }
+                        HeatPriority::HeatingFirst
+                            if hd.total_kwh() > 0.0 && t_top < hd.t_dhw_c.max(hd.t_sh_supply_c) =>
+                        {
+                            draws[0].flow_kg_s = 0.0;
+                        }
+                        _ => {}
+                    }
+                }
+                for d in &draws {
+                    streams[n] = draw(d.flow_kg_s, d.t_return_c);
+                    n += 1;
+                }
+                let r = s.store.step(DT_S, &streams[..n], s.t_room_c, s.cp_j_kgk);
+                q_collected_j += r.q_in_j[0];
+                // Draw streams have q_in < 0: heat out of the store.
+                route_solar_j += -r.q_in_j[1];
+                demand_solar_j += -(r.q_in_j[2] + r.q_in_j[3]);
+                q_in_sum_j += r.q_in_j[..n].iter().sum::<f64>();
+                q_loss_j += r.q_loss_j;
+                delta_j += r.delta_stored_j;
+            }
+            let stored1 = s.store.stored_j();
+            rec.solar_heat_kwh = q_collected_j / J_PER_KWH;
+            rec.store_loss_kwh = q_loss_j / J_PER_KWH;
+            // Closure from the store's own end states, independent of its reported Δ.
+            rec.balance_error_kwh = (q_in_sum_j - q_loss_j - (stored1 - stored0)) / J_PER_KWH;
+            rec.balance_error_rel = (rec.balance_error_kwh * J_PER_KWH).abs() / stored1.abs().max(1.0);
+            let _ = delta_j;
+            rec.t_store_c = Some(s.store.t_mean_c());
+            rec.t_store_top_c = Some(s.store.t_top_c());
+            rec.pump_kwh = s.pump_w * rec.pump_hours / 1000.0;
+        }
+        // Route: solar heat it got, backup for the rest of what it asked.
+        let heat = request.map(|r| {
+            let solar_kwh = (route_solar_j / J_PER_KWH).max(0.0);
+            HeatSupplied { solar_kwh, backup_kwh: (r.heat_kwh - solar_kwh).max(0.0) }
+        });
+        let rh: RouteHour = opt.route.run(c, heat);
+        if let Some(h) = heat {
+            rec.heat_to_route_kwh = h.solar_kwh + h.backup_kwh;
+            rec.route_solar_kwh = h.solar_kwh;
+            rec.backup_heat_kwh += h.backup_kwh;
+        }
+        let demand_solar_kwh = (demand_solar_j / J_PER_KWH).max(0.0);
+        rec.heat_demand_solar_kwh = demand_solar_kwh.min(hd_all.total_kwh());
+        rec.backup_heat_kwh += (hd_all.total_kwh() - demand_solar_kwh).max(0.0);
+        rec.fuel_kwh = opt.boiler.fuel_kwh(rec.backup_heat_kwh);
+        rec.cooling_kwh = rh.cooling_kwh;
+        rec.unmet_kwh = rh.unmet_kwh;
+        rec.route_electricity_kwh = rh.electricity_kwh;
+        rec.electricity_kwh = rh.electricity_kwh + rec.pump_kwh;
+        rec.heat_rejected_kwh = rh.heat_rejected_kwh;
+        rec.cop_thermal = rh.cop_thermal;
+        rec.cop_electric = rh.cop_electric;
+        rec.reason = rh.reason;
+        out.push(rec);
+    }
+    out
+}
+
+/// Collector loop with the pump running: mass flow and the temperature it brings to the
+/// store. For an indirect loop with equal capacity rates on both sides of an exchanger of
+/// effectiveness ε, the collector inlet is `t_co − ε (t_co − t_store)` and the store receives
+/// `t_store + ε (t_co − t_store)`; the collector inlet is found by fixed-point iteration
+/// (a contraction: the collector outlet rises less than its inlet).
+fn collector_loop(s: &SolarLoop, poa: &PlaneIrradiance, t_store_c: f64, t_amb_c: f64) -> (f64, f64) {
+    let run = |t_in: f64| s.field.run(t_in, poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, t_amb_c);
+    match s.hx_effectiveness {
+        None => {
+            let o = run(t_store_c);
+            (o.flow_kg_s, o.t_out_c)
+        }
+        Some(eff) => {
+            let mut t_ci = t_store_c;
+            let mut o = run(t_ci);
+            for _ in 0..30 {
+                let next = o.t_out_c - eff * (o.t_out_c - t_store_c);
+                if (next - t_ci).abs() < 1e-6 {
+                    break;
+                }
+                t_ci = next;
+                o = run(t_ci);
+            }
+            (o.flow_kg_s, t_store_c + eff * (o.t_out_c - t_store_c))
+        }
+    }
+}
+
+/// Simulate several options; results in the same order.
+pub fn simulate_all(opts: &[PlantOption], y: &YearInputs) -> Vec<Vec<HourRecord>> {
+    opts.iter().map(|o| simulate(o, y)).collect()
+}
+
+/// Route results for a bare route with no store (used by checks).
+pub fn route_only(route: &dyn Route, c: &HourConditions) -> RouteHour {
+    route.run(c, None)
+}

@@ -1,0 +1,1 @@
+pub const STARTER: &str = include_str!("../../scenarios/starter.toml");
