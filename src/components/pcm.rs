@@ -291,7 +291,7 @@ mod tests {
     fn isothermal_melt_exchanger_is_exact() {
         // Isothermal PCM at 58 °C, 40 % melted; 0.2 kg/s of water (cp 4180) at 75 °C through an
         // exchanger of UA 800 W/K for one hour. T stays at 58 °C, so
-        // q_in = ε ṁ cp (75 − 58) t, ε = 1 − exp(−800/836) = 0.61587 (Incropera & DeWitt 6th ed. §11.4, C_r = 0).
+        // q_in = ε ṁ cp (75 − 58) t, ε = 1 − exp(−800/836) = 0.61593 (Incropera & DeWitt 6th ed. §11.4, C_r = 0).
         let spec = PcmSpec { melt_range_k: 0.0, ua_loss_w_k: 0.0, ..PcmSpec::demo_paraffin_58() };
         let mut p = Pcm::new(&spec);
         p.h_j_kg = 0.4 * spec.latent_j_kg;
