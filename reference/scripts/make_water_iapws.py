@@ -15,7 +15,7 @@ assert iapws.__version__ == "1.5.5", iapws.__version__
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 REF = os.path.dirname(HERE)
-SRC = "iapws 1.5.5 (PyPI) IAPWS97(T, P)"
+SRC = "iapws 1.5.5 (PyPI) IAPWS97 class"  # no commas: it is a CSV cell
 
 
 def state(t_c, p_kpa):

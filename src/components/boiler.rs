@@ -22,7 +22,12 @@ impl Boiler {
     /// Check the fields: efficiency in (0, 1.1] (HHV basis), capacity (0, 1e6] kW when given.
     /// Errors name the key `efficiency` or `capacity_kw`.
     pub fn validate(&self) -> Result<()> {
-        positive("efficiency", self.efficiency, 1.1, "heat out per fuel in, HHV basis")?;
+        positive(
+            "efficiency",
+            self.efficiency,
+            1.1,
+            "heat out per fuel in, HHV basis",
+        )?;
         if let Some(c) = self.capacity_kw {
             positive("capacity_kw", c, 1.0e6, "boiler heat output, kW")?;
         }
@@ -49,7 +54,11 @@ impl Boiler {
     ///
     /// Returns `(delivered_kwh, fuel_kwh)`; with `capacity_kw = None` all is delivered.
     pub fn deliver(&self, heat_wanted_kwh: f64) -> (f64, f64) {
-        let wanted = if heat_wanted_kwh.is_finite() && heat_wanted_kwh > 0.0 { heat_wanted_kwh } else { 0.0 };
+        let wanted = if heat_wanted_kwh.is_finite() && heat_wanted_kwh > 0.0 {
+            heat_wanted_kwh
+        } else {
+            0.0
+        };
         let delivered = match self.capacity_kw {
             Some(c) if c.is_finite() && c >= 0.0 => wanted.min(c),
             _ => wanted,
@@ -65,13 +74,20 @@ mod tests {
     #[test]
     fn fuel_and_capacity() {
         // 90 % (HHV) boiler: 45 kWh of heat burns 50 kWh of fuel.
-        let b = Boiler { efficiency: 0.9, capacity_kw: Some(30.0) };
+        let b = Boiler {
+            efficiency: 0.9,
+            capacity_kw: Some(30.0),
+        };
         assert!((b.fuel_kwh(45.0) - 50.0).abs() < 1e-12);
         // Capacity 30 kW over one hour: 45 kWh wanted, 30 delivered, 33.33 fuel.
         let (d, f) = b.deliver(45.0);
         assert_eq!(d, 30.0);
         assert!((f - 30.0 / 0.9).abs() < 1e-12);
-        let (d, f) = Boiler { capacity_kw: None, ..b }.deliver(45.0);
+        let (d, f) = Boiler {
+            capacity_kw: None,
+            ..b
+        }
+        .deliver(45.0);
         assert_eq!((d, f), (45.0, 50.0));
         assert_eq!(b.deliver(f64::NAN), (0.0, 0.0));
     }
@@ -79,11 +95,34 @@ mod tests {
     #[test]
     fn efficiency_range() {
         for bad in [0.0, -0.5, 1.2, f64::NAN] {
-            assert!(Boiler { efficiency: bad, capacity_kw: None }.validate().is_err(), "{bad}");
+            assert!(
+                Boiler {
+                    efficiency: bad,
+                    capacity_kw: None
+                }
+                .validate()
+                .is_err(),
+                "{bad}"
+            );
         }
         for ok in [0.5, 1.0, 1.1] {
-            assert!(Boiler { efficiency: ok, capacity_kw: None }.validate().is_ok(), "{ok}");
+            assert!(
+                Boiler {
+                    efficiency: ok,
+                    capacity_kw: None
+                }
+                .validate()
+                .is_ok(),
+                "{ok}"
+            );
         }
-        assert!(Boiler { efficiency: 0.9, capacity_kw: Some(-1.0) }.validate().is_err());
+        assert!(
+            Boiler {
+                efficiency: 0.9,
+                capacity_kw: Some(-1.0)
+            }
+            .validate()
+            .is_err()
+        );
     }
 }

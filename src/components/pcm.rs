@@ -71,14 +71,58 @@ impl PcmSpec {
     /// is `ua_w_k` as in the scenario).
     pub fn validate(&self) -> Result<()> {
         positive("mass_kg", self.mass_kg, 1.0e7, "PCM mass, kg")?;
-        positive("cp_solid_j_kgk", self.cp_solid_j_kgk, 10_000.0, "solid specific heat, J/(kg·K)")?;
-        positive("cp_liquid_j_kgk", self.cp_liquid_j_kgk, 10_000.0, "liquid specific heat, J/(kg·K)")?;
-        positive("latent_j_kg", self.latent_j_kg, 1.0e6, "latent heat of melting, J/kg")?;
-        in_range("t_melt_c", self.t_melt_c, 0.0, 200.0, "melting temperature, °C")?;
-        in_range("melt_range_k", self.melt_range_k, 0.0, 20.0, "melting range, K")?;
-        in_range("ua_w_k", self.ua_loss_w_k, 0.0, 1.0e5, "store loss coefficient to the room, W/K")?;
-        positive("ua_hx_w_k", self.ua_hx_w_k, 1.0e6, "fluid-to-PCM exchanger UA, W/K")?;
-        in_range("t_init_c", self.t_init_c, -50.0, 250.0, "store start temperature, °C")?;
+        positive(
+            "cp_solid_j_kgk",
+            self.cp_solid_j_kgk,
+            10_000.0,
+            "solid specific heat, J/(kg·K)",
+        )?;
+        positive(
+            "cp_liquid_j_kgk",
+            self.cp_liquid_j_kgk,
+            10_000.0,
+            "liquid specific heat, J/(kg·K)",
+        )?;
+        positive(
+            "latent_j_kg",
+            self.latent_j_kg,
+            1.0e6,
+            "latent heat of melting, J/kg",
+        )?;
+        in_range(
+            "t_melt_c",
+            self.t_melt_c,
+            0.0,
+            200.0,
+            "melting temperature, °C",
+        )?;
+        in_range(
+            "melt_range_k",
+            self.melt_range_k,
+            0.0,
+            20.0,
+            "melting range, K",
+        )?;
+        in_range(
+            "ua_w_k",
+            self.ua_loss_w_k,
+            0.0,
+            1.0e5,
+            "store loss coefficient to the room, W/K",
+        )?;
+        positive(
+            "ua_hx_w_k",
+            self.ua_hx_w_k,
+            1.0e6,
+            "fluid-to-PCM exchanger UA, W/K",
+        )?;
+        in_range(
+            "t_init_c",
+            self.t_init_c,
+            -50.0,
+            250.0,
+            "store start temperature, °C",
+        )?;
         Ok(())
     }
 }
@@ -113,7 +157,10 @@ const MAX_STEP_FRACTION: f64 = 0.25;
 impl Pcm {
     /// A store at its start temperature. Call [`PcmSpec::validate`] first.
     pub fn new(spec: &PcmSpec) -> Pcm {
-        let mut p = Pcm { spec: spec.clone(), h_j_kg: 0.0 };
+        let mut p = Pcm {
+            spec: spec.clone(),
+            h_j_kg: 0.0,
+        };
         p.h_j_kg = p.specific_enthalpy(spec.t_init_c);
         p
     }
@@ -225,28 +272,57 @@ impl Pcm {
             && cp_j_kgk.is_finite()
             && cp_j_kgk > 0.0;
         if !(dt_s.is_finite() && dt_s > 0.0) {
-            return PcmStep { t_out_c: self.temperature_c(), ..PcmStep::default() };
+            return PcmStep {
+                t_out_c: self.temperature_c(),
+                ..PcmStep::default()
+            };
         }
         let s = &self.spec;
         let c_fluid = if flowing { flow_kg_s * cp_j_kgk } else { 0.0 };
-        let g_hx = if flowing { c_fluid * (1.0 - (-s.ua_hx_w_k / c_fluid).exp()) } else { 0.0 };
-        let ua_loss = if t_room_c.is_finite() { s.ua_loss_w_k } else { 0.0 };
+        let g_hx = if flowing {
+            c_fluid * (1.0 - (-s.ua_hx_w_k / c_fluid).exp())
+        } else {
+            0.0
+        };
+        let ua_loss = if t_room_c.is_finite() {
+            s.ua_loss_w_k
+        } else {
+            0.0
+        };
         let cap_min = s.mass_kg * s.cp_solid_j_kgk.min(s.cp_liquid_j_kgk);
-        let subs_f = (dt_s * (g_hx + ua_loss) / (MAX_STEP_FRACTION * cap_min)).ceil().max(1.0);
-        let subs = if subs_f < u32::MAX as f64 { subs_f as u32 } else { u32::MAX };
+        let subs_f = (dt_s * (g_hx + ua_loss) / (MAX_STEP_FRACTION * cap_min))
+            .ceil()
+            .max(1.0);
+        let subs = if subs_f < u32::MAX as f64 {
+            subs_f as u32
+        } else {
+            u32::MAX
+        };
         let h = dt_s / subs as f64;
         let m = s.mass_kg;
         let h0 = self.h_j_kg;
         let (mut q_in, mut q_loss) = (0.0, 0.0);
         for _ in 0..subs {
             let t = self.temperature_c();
-            let qi = if flowing { h * g_hx * (t_in_c - t) } else { 0.0 };
-            let ql = if ua_loss > 0.0 { h * ua_loss * (t - t_room_c) } else { 0.0 };
+            let qi = if flowing {
+                h * g_hx * (t_in_c - t)
+            } else {
+                0.0
+            };
+            let ql = if ua_loss > 0.0 {
+                h * ua_loss * (t - t_room_c)
+            } else {
+                0.0
+            };
             q_in += qi;
             q_loss += ql;
             self.h_j_kg += (qi - ql) / m;
         }
-        let t_out_c = if flowing { t_in_c - q_in / (c_fluid * dt_s) } else { self.temperature_c() };
+        let t_out_c = if flowing {
+            t_in_c - q_in / (c_fluid * dt_s)
+        } else {
+            self.temperature_c()
+        };
         PcmStep {
             q_in_j: q_in,
             t_out_c,
@@ -269,7 +345,10 @@ mod tests {
         let q = p.enthalpy_j(70.0) - p.enthalpy_j(40.0);
         assert!((q - 242.4e6).abs() < 1e-3);
         // Isothermal version gives the same total.
-        let iso = Pcm::new(&PcmSpec { melt_range_k: 0.0, ..PcmSpec::demo_paraffin_58() });
+        let iso = Pcm::new(&PcmSpec {
+            melt_range_k: 0.0,
+            ..PcmSpec::demo_paraffin_58()
+        });
         assert!((iso.enthalpy_j(70.0) - iso.enthalpy_j(40.0) - 242.4e6).abs() < 1e-3);
     }
 
@@ -292,7 +371,11 @@ mod tests {
         // Isothermal PCM at 58 °C, 40 % melted; 0.2 kg/s of water (cp 4180) at 75 °C through an
         // exchanger of UA 800 W/K for one hour. T stays at 58 °C, so
         // q_in = ε ṁ cp (75 − 58) t, ε = 1 − exp(−800/836) = 0.61593 (Incropera & DeWitt 6th ed. §11.4, C_r = 0).
-        let spec = PcmSpec { melt_range_k: 0.0, ua_loss_w_k: 0.0, ..PcmSpec::demo_paraffin_58() };
+        let spec = PcmSpec {
+            melt_range_k: 0.0,
+            ua_loss_w_k: 0.0,
+            ..PcmSpec::demo_paraffin_58()
+        };
         let mut p = Pcm::new(&spec);
         p.h_j_kg = 0.4 * spec.latent_j_kg;
         let r = p.step(3600.0, 0.2, 75.0, 4180.0, 20.0);
@@ -318,7 +401,10 @@ mod tests {
         assert!((total - p.stored_j(40.0)).abs() < 1e-6 * p.enthalpy_j(80.0));
         let r = p.step(3600.0, f64::NAN, 50.0, 4180.0, f64::NAN);
         assert!(r.t_out_c.is_finite() && r.q_in_j == 0.0 && r.q_loss_j == 0.0);
-        let bad = PcmSpec { latent_j_kg: 0.0, ..PcmSpec::demo_paraffin_58() };
+        let bad = PcmSpec {
+            latent_j_kg: 0.0,
+            ..PcmSpec::demo_paraffin_58()
+        };
         assert!(bad.validate().is_err());
         assert!(PcmSpec::demo_paraffin_58().validate().is_ok());
     }
