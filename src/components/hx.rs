@@ -21,7 +21,11 @@
 /// Source: Incropera et al., 7th ed., Table 11.3 (counterflow, eqs. 11.29a/b).
 pub fn effectiveness_counterflow(ntu: f64, c_ratio: f64) -> f64 {
     let ntu = ntu.max(0.0);
-    let cr = c_ratio.max(0.0).min(1.0);
+    let cr = if c_ratio.is_nan() {
+        0.0
+    } else {
+        c_ratio.clamp(0.0, 1.0)
+    };
     let x = ntu * (1.0 - cr);
     if x == 0.0 {
         return ntu / (1.0 + ntu);

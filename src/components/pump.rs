@@ -74,7 +74,12 @@ impl Pump {
     /// * `run_fraction` – running time as a fraction of the hour, clamped to `[0, 1]`
     ///   (NaN counts as 0)
     pub fn electricity_kwh(&self, run_fraction: f64) -> f64 {
-        self.power_w * run_fraction.max(0.0).min(1.0) / 1000.0
+        let f = if run_fraction.is_nan() {
+            0.0
+        } else {
+            run_fraction.clamp(0.0, 1.0)
+        };
+        self.power_w * f / 1000.0
     }
 }
 
