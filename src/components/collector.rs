@@ -482,7 +482,7 @@ mod tests {
         assert!((t.iam_beam(80.0) - 0.45).abs() < 1e-12);
     }
 
-    /// The one-parameter IAM never increases with the angle (D&B 4th ed. §6.17 Fig. 6.17.x).
+    /// The one-parameter IAM never increases with the angle (it is 1 − b0 (sec θ − 1), b0 > 0).
     #[test]
     fn iam_b0_monotone() {
         let c = demo_flat_plate();
