@@ -262,8 +262,8 @@ fn apparent_sidereal_deg(jd_ut: f64, delta_t_s: f64) -> f64 {
         - jc * jc * jc / 38_710_000.0;
     let jce = (jd_ut + delta_t_s / 86_400.0 - 2_451_545.0) / 36_525.0;
     let omega = (125.044_52 - 1_934.136_261 * jce).to_radians();
-    let l_sun = (280.4665 + 36_000.7698 * jce).to_radians();
-    let l_moon = (218.3165 + 481_267.8813 * jce).to_radians();
+    let l_sun = (280.4665 + 36_000.769_8 * jce).to_radians();
+    let l_moon = (218.3165 + 481_267.881_3 * jce).to_radians();
     let dpsi_arcsec =
         -17.20 * omega.sin() - 1.32 * (2.0 * l_sun).sin() - 0.23 * (2.0 * l_moon).sin()
             + 0.21 * (2.0 * omega).sin();

@@ -102,8 +102,8 @@ fn clean(x: f64) -> f64 {
 ///   - HDKR (D&B eq. 2.16.7, diffuse terms): `DHI [(1 − A_i)(1 + cos β)/2 (1 + f sin³(β/2))
 ///     + A_i R_b]`, `A_i = DNI/G_on`, `f = √(DNI cos θz / GHI)`,
 ///     `R_b = max(cos θ, 0)/max(cos θz, 0.01745)`;
-///   - Perez 1990 (their eqs. 1, 2, 9 and Table 6): `DHI [(1 − F1)(1 + cos β)/2 + F1 a/b
-///     + F2 sin β]` with `a = max(cos θ, 0)`, `b = max(cos θz, cos 85°)`,
+///   - Perez 1990 (their eqs. 1, 2, 9 and Table 6): `DHI [(1 − F1)(1 + cos β)/2 + F1 a/b +
+///     F2 sin β]` with `a = max(cos θ, 0)`, `b = max(cos θz, cos 85°)`,
 ///     `F1 = max(f11 + f12 Δ + f13 Z, 0)`, `F2 = f21 + f22 Δ + f23 Z`, Z = θz in radians,
 ///     brightness `Δ = DHI m / G_on`, clearness `ε = ((DHI + DNI)/DHI + κ Z³)/(1 + κ Z³)`
 ///     selecting the coefficient bin; clipped at 0.
