@@ -10,15 +10,19 @@ use crate::error::Result;
 use crate::sun::position::SunPosition;
 use crate::validate::in_range;
 
-/// How the collector plane follows the sun.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// How the collector plane follows the sun. Scenario names: `fixed`, `one-axis-ns`,
+/// `one-axis-ew`, `two-axis`.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
 pub enum Tracking {
     /// The plane stays as given.
     Fixed,
     /// Horizontal north–south axis; the plane turns east–west to minimise the angle of
     /// incidence (D&B 4th ed. §1.7, eq. 1.7.6a/b).
+    #[serde(rename = "one-axis-ns")]
     OneAxisNorthSouth,
     /// Horizontal east–west axis, continuously adjusted (D&B 4th ed. §1.7, eq. 1.7.4a/b).
+    #[serde(rename = "one-axis-ew")]
     OneAxisEastWest,
     /// Plane held normal to the beam.
     TwoAxis,

@@ -18,14 +18,16 @@
 use crate::sun::incidence::Plane;
 use crate::sun::position::SunPosition;
 
-/// Sky diffuse model.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// Sky diffuse model. Scenario names: `isotropic`, `hdkr`, `perez`.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Deserialize)]
+#[serde(rename_all = "lowercase")]
 pub enum SkyModel {
     /// Uniform sky: `G_d,T = G_d (1 + cos β)/2` (Liu & Jordan; D&B 4th ed. §2.15).
     Isotropic,
     /// Hay–Davies–Klucher–Reindl (D&B 4th ed. §2.16, eq. 2.16.7).
     Hdkr,
     /// Perez et al. 1990, 'allsitescomposite1990' coefficients.
+    #[serde(rename = "perez")]
     Perez1990,
 }
 
