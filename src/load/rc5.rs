@@ -705,3 +705,245 @@ pub fn simulate(
         origin: "ISO 13790 5R1C model".to_string(),
     })
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::load::schedule;
+
+    /// A demo office: 500 m², medium mass (demo values, typical of the class).
+    fn office() -> BuildingSpec {
+        toml::from_str(
+            r#"
+            floor_area_m2 = 500.0
+            ua_opaque_w_k = 250.0
+            ua_windows_w_k = 240.0
+            windows = { north_m2 = 20.0, east_m2 = 25.0, south_m2 = 40.0, west_m2 = 25.0 }
+            g_value = 0.5
+            mass_class = "medium"
+            internal_gains_w_m2 = 15.0
+            occupants = 40.0
+            ventilation_m3_h = 1500.0
+            t_cool_setpoint_c = 26.0
+            t_heat_setpoint_c = 20.0
+            rh_setpoint_pct = 50.0
+            schedule = { weekday = [0,0,0,0,0,0,0,0,1,1,1,1,1,1,1,1,1,1,0,0,0,0,0,0], weekend = [0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0,0] }
+            "#,
+        )
+        .unwrap()
+    }
+
+    fn year(f: impl Fn(usize) -> BuildingHourInput) -> Vec<BuildingHourInput> {
+        (0..HOURS).map(f).collect()
+    }
+
+    fn calm(i: usize, t_out_c: f64, w_out_kg_kg: f64) -> BuildingHourInput {
+        BuildingHourInput {
+            t_out_c,
+            w_out_kg_kg,
+            solar_w_m2: [0.0; 5],
+            hour_of_day: (i % 24) as u32,
+            // 1 January taken as a Monday.
+            weekday: ((i / 24) % 7) as u32,
+        }
+    }
+
+    #[test]
+    fn spec_defaults_and_validates() {
+        let s = office();
+        s.validate().unwrap();
+        assert_eq!(s.shading_factor, 1.0);
+        assert_eq!(s.frame_fraction, 0.25);
+        assert_eq!(s.sensible_w_per_person, 75.0);
+        assert_eq!(s.latent_w_per_person, 55.0);
+        assert_eq!(s.infiltration_ach, 0.3);
+        assert!(s.t_cool_unoccupied_c.is_none());
+        // A_sol south = F_sh g (1 − F_F) A_w = 1 × 0.5 × 0.75 × 40 = 15 m² (ISO 13790 eq. 44).
+        assert!((s.solar_areas_m2()[2] - 15.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn mass_class_names_deserialize() {
+        #[derive(serde::Deserialize)]
+        struct W {
+            m: MassClass,
+        }
+        let w: W = toml::from_str("m = \"very-heavy\"").unwrap();
+        assert_eq!(w.m, MassClass::VeryHeavy);
+        assert!(toml::from_str::<W>("m = \"concrete\"").is_err());
+    }
+
+    #[test]
+    fn network_medium_office() {
+        // A_f = 100 m², medium: A_m = 250 m², A_t = 450 m², C_m = 16.5 MJ/K,
+        // H_tr,is = 3.45 × 450 = 1552.5 W/K, H_tr,ms = 9.1 × 250 = 2275 W/K,
+        // H_tr,em = 1/(1/60 − 1/2275) = 61.62528 W/K (ISO 13790:2008 Table 12, eqs. 9, 63, 64).
+        let n = Network::new(100.0, MassClass::Medium, 60.0, 40.0).unwrap();
+        assert_eq!(n.a_m_m2, 250.0);
+        assert_eq!(n.a_t_m2, 450.0);
+        assert_eq!(n.c_m_j_k, 16.5e6);
+        assert!((n.h_tr_is_w_k - 1552.5).abs() < 1e-9);
+        assert!((n.h_tr_ms_w_k - 2275.0).abs() < 1e-9);
+        assert!((n.h_tr_em_w_k - 61.625_282_167).abs() < 1e-6);
+    }
+
+    #[test]
+    fn validation_errors_name_the_key() {
+        let mut s = office();
+        s.floor_area_m2 = -10.0;
+        let e = s.validate().unwrap_err().to_string();
+        assert!(e.contains("floor_area_m2 = -10"), "{e}");
+
+        let mut s = office();
+        s.g_value = 1.2;
+        let e = s.validate().unwrap_err().to_string();
+        assert!(e.contains("g_value = 1.2") && e.contains("between 0 and 1"), "{e}");
+
+        let mut s = office();
+        s.schedule.weekday.truncate(23);
+        let e = s.validate().unwrap_err().to_string();
+        assert!(e.contains("schedule.weekday") && e.contains("exactly 24"), "{e}");
+
+        let mut s = office();
+        s.t_heat_setpoint_c = 27.0;
+        assert!(s.validate().unwrap_err().to_string().contains("t_heat_setpoint_c"));
+
+        // H_tr,op above H_tr,ms = 9.1 × 2.5 × 500 = 11 375 W/K cannot be split.
+        let mut s = office();
+        s.ua_opaque_w_k = 12_000.0;
+        let e = s.validate().unwrap_err().to_string();
+        assert!(e.contains("ua_opaque_w_k") && e.contains("11375"), "{e}");
+
+        let mut s = office();
+        s.windows.south_m2 = f64::NAN;
+        assert!(s.validate().unwrap_err().to_string().contains("windows.south_m2"));
+    }
+
+    #[test]
+    fn unknown_key_rejected() {
+        let text = "floor_area_m2 = 1.0\nfloor_aera = 2.0";
+        assert!(toml::from_str::<BuildingSpec>(text).is_err());
+    }
+
+    #[test]
+    fn simulate_rejects_bad_inputs() {
+        let s = office();
+        let short: Vec<_> = (0..8759).map(|i| calm(i, 20.0, 0.008)).collect();
+        let e = simulate(&s, &short, 0.0093).unwrap_err().to_string();
+        assert!(e.contains("8759") && e.contains("8760"), "{e}");
+        let mut y = year(|i| calm(i, 20.0, 0.008));
+        y[100].solar_w_m2[2] = f64::NAN;
+        let e = simulate(&s, &y, 0.0093).unwrap_err().to_string();
+        assert!(e.contains("hour 100.solar_w_m2[2]"), "{e}");
+        let y = year(|i| calm(i, 20.0, 0.008));
+        assert!(simulate(&s, &y, -0.1).is_err());
+    }
+
+    /// Constant 35 °C outdoors, no sun, no gains, set-point 26 °C day and night: every hour the
+    /// sensible load is the network's steady conductance × 9 K (warm-up has settled the mass).
+    #[test]
+    fn constant_weather_gives_steady_load() {
+        let mut s = office();
+        s.internal_gains_w_m2 = 0.0;
+        s.occupants = 0.0;
+        s.schedule = DaySchedule {
+            weekday: vec![1.0; 24],
+            weekend: vec![1.0; 24],
+        };
+        let y = year(|i| calm(i, 35.0, 0.008));
+        let out = simulate(&s, &y, 0.0093).unwrap();
+        let net = Network::from_spec(&s).unwrap();
+        let air_m3_h = 1500.0 + 0.3 * 500.0 * 3.0;
+        let h_ve = 1200.0 * air_m3_h / 3600.0;
+        let expect_kw = net.steady_conductance_w_k(h_ve) * 9.0 / 1000.0;
+        for h in [0, 4000, 8759] {
+            let l = out.hours[h];
+            assert!((l.sensible_kw - expect_kw).abs() < 1e-6 * expect_kw, "{l:?} vs {expect_kw}");
+            assert_eq!(l.heating_kw, 0.0);
+            assert!((l.t_in_c - 26.0).abs() < 1e-9);
+            // Drier outdoor air (0.008 < 0.0093) and no people: no latent load.
+            assert_eq!(l.latent_kw, 0.0);
+        }
+    }
+
+    /// Office in a humid, warm year: latent load only while cooling is available (office
+    /// hours), equal to ρ V̇ ΔW h_fg + N q_lat; no cooling at night (cooling off unoccupied).
+    #[test]
+    fn office_latent_and_schedule() {
+        let s = office();
+        let y = year(|i| calm(i, 30.0, 0.016));
+        let out = simulate(&s, &y, 0.0093).unwrap();
+        // Monday 10:00 (hour 10): occupied.
+        let day = out.hours[10];
+        let air = 1500.0 + 0.3 * 500.0 * 3.0;
+        let expect_w = 1.204 * air / 3600.0 * (0.016 - 0.0093) * 2.501e6 + 40.0 * 55.0;
+        assert!((day.latent_kw * 1000.0 - expect_w).abs() < 1e-6, "{day:?}");
+        assert!(day.sensible_kw > 0.0);
+        assert!((day.t_in_c - 26.0).abs() < 1e-9);
+        // Monday 02:00: cooling off, free-floating, no loads.
+        let night = out.hours[2];
+        assert_eq!((night.sensible_kw, night.latent_kw, night.heating_kw), (0.0, 0.0, 0.0));
+        assert!(night.t_in_c > 26.0, "{night:?}");
+        // Saturday 10:00 (day 5): unoccupied.
+        assert_eq!(out.hours[5 * 24 + 10].sensible_kw, 0.0);
+    }
+
+    #[test]
+    fn winter_heating_with_setback() {
+        let mut s = office();
+        s.t_heat_unoccupied_c = Some(15.0);
+        let y = year(|i| calm(i, -5.0, 0.002));
+        let out = simulate(&s, &y, 0.0093).unwrap();
+        let day = out.hours[10];
+        assert!(day.heating_kw > 0.0 && day.sensible_kw == 0.0 && day.latent_kw == 0.0);
+        assert!((day.t_in_c - 20.0).abs() < 1e-9);
+        // Night: set-back holds 15 °C.
+        let night = out.hours[3];
+        assert!(night.heating_kw > 0.0);
+        assert!((night.t_in_c - 15.0).abs() < 1e-9);
+        assert!(night.heating_kw < day.heating_kw);
+    }
+
+    /// Sun through south windows adds a cooling load: 40 m² × 0.5 × 0.75 × 500 W/m² = 7.5 kW of
+    /// gains; the extra hourly cooling is positive and below the gain (part is stored).
+    #[test]
+    fn solar_gain_raises_cooling() {
+        let s = office();
+        let dark = simulate(&s, &year(|i| calm(i, 30.0, 0.01)), 0.0093).unwrap();
+        let sunny = simulate(
+            &s,
+            &year(|i| {
+                let mut h = calm(i, 30.0, 0.01);
+                if (9..15).contains(&(i % 24)) {
+                    h.solar_w_m2[2] = 500.0;
+                }
+                h
+            }),
+            0.0093,
+        )
+        .unwrap();
+        let extra = sunny.hours[12].sensible_kw - dark.hours[12].sensible_kw;
+        assert!(extra > 0.0 && extra < 7.5, "extra {extra} kW");
+    }
+
+    /// 8760 hours of the 5R1C model; prints the time (debug build here; the brief asks for
+    /// well under 1 ms in release).
+    #[test]
+    fn year_is_fast() {
+        let s = office();
+        let y = year(|i| calm(i, 20.0 + 10.0 * ((i % 24) as f64 / 24.0), 0.01));
+        let t = std::time::Instant::now();
+        let out = simulate(&s, &y, 0.0093).unwrap();
+        let dt = t.elapsed();
+        eprintln!("5R1C year: {dt:?}");
+        assert_eq!(out.hours.len(), HOURS);
+        assert!(out.hours.iter().all(|h| h.t_in_c.is_finite()));
+    }
+
+    #[test]
+    fn demo_schedules_fit() {
+        let mut s = office();
+        s.schedule = schedule::clinic();
+        s.validate().unwrap();
+    }
+}
