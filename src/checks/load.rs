@@ -118,9 +118,30 @@ fn settle(net: &Network, d: &HourDrive, t_m0: f64) -> rc5::StepResult {
 
 /// Buildings used by the computed checks: (name, A_f, mass, H_tr,op, H_tr,w, H_ve).
 const NETS: [(&str, f64, MassClass, f64, f64, f64); 3] = [
-    ("office 100 m² medium", 100.0, MassClass::Medium, 60.0, 40.0, 100.0),
-    ("hall 250 m² very light", 250.0, MassClass::VeryLight, 150.0, 200.0, 300.0),
-    ("archive 80 m² very heavy", 80.0, MassClass::VeryHeavy, 40.0, 30.0, 20.0),
+    (
+        "office 100 m² medium",
+        100.0,
+        MassClass::Medium,
+        60.0,
+        40.0,
+        100.0,
+    ),
+    (
+        "hall 250 m² very light",
+        250.0,
+        MassClass::VeryLight,
+        150.0,
+        200.0,
+        300.0,
+    ),
+    (
+        "archive 80 m² very heavy",
+        80.0,
+        MassClass::VeryHeavy,
+        40.0,
+        30.0,
+        20.0,
+    ),
 ];
 
 /// Steady state: no gains, constant θ_e and set-point; the need settles to
@@ -152,10 +173,11 @@ fn steady_state() -> Result<Vec<Check>> {
                 value: r.phi_hc_w,
                 expected,
                 tolerance: 1e-6 * expected.abs(),
-                source: "closed form: Φ = (H_ve + 1/(1/H_tr,is + 1/(H_tr,w + H_tr,op)))(θ_set − θ_e), \
+                source:
+                    "closed form: Φ = (H_ve + 1/(1/H_tr,is + 1/(H_tr,w + H_tr,op)))(θ_set − θ_e), \
                          the conductance of the ISO 13790 5R1C network from air node to outdoors \
                          (H_tr,ms and H_tr,em in series = H_tr,op), H_tr,is = 3.45 × 4.5 A_f"
-                    .to_string(),
+                        .to_string(),
             });
         }
     }
@@ -198,7 +220,10 @@ fn free_decay() -> Result<Vec<Check>> {
         out.push(Check {
             group: "load",
             table: "computed",
-            case: format!("{name}, free-floating decay after {n} h (τ = {:.1} h), t_m_c", tau_s / 3600.0),
+            case: format!(
+                "{name}, free-floating decay after {n} h (τ = {:.1} h), t_m_c",
+                tau_s / 3600.0
+            ),
             value: t_m,
             expected,
             tolerance,
@@ -282,7 +307,11 @@ mod tests {
     #[test]
     fn all_load_checks_pass() {
         let checks = checks().unwrap();
-        assert!(checks.len() >= 28 + 2 + 9 + 3 + 3, "{} checks", checks.len());
+        assert!(
+            checks.len() >= 28 + 2 + 9 + 3 + 3,
+            "{} checks",
+            checks.len()
+        );
         for c in &checks {
             assert!(
                 c.passed(),

@@ -224,15 +224,32 @@ impl BuildingSpec {
     /// (a negative share of gains at the star node, eq. C.3).
     pub fn validate(&self) -> Result<()> {
         use validate::{in_range, positive};
-        positive("floor_area_m2", self.floor_area_m2, 1e6, "conditioned floor area, m²")?;
-        in_range("room_height_m", self.room_height_m, 1.5, 30.0, "mean room height, m")?;
+        positive(
+            "floor_area_m2",
+            self.floor_area_m2,
+            1e6,
+            "conditioned floor area, m²",
+        )?;
+        in_range(
+            "room_height_m",
+            self.room_height_m,
+            1.5,
+            30.0,
+            "mean room height, m",
+        )?;
         positive(
             "ua_opaque_w_k",
             self.ua_opaque_w_k,
             1e7,
             "U·A of the opaque envelope, W/K",
         )?;
-        in_range("ua_windows_w_k", self.ua_windows_w_k, 0.0, 1e7, "U·A of the windows, W/K")?;
+        in_range(
+            "ua_windows_w_k",
+            self.ua_windows_w_k,
+            0.0,
+            1e7,
+            "U·A of the windows, W/K",
+        )?;
         let w = &self.windows;
         for (k, v) in [
             ("windows.north_m2", w.north_m2),
@@ -242,13 +259,43 @@ impl BuildingSpec {
         ] {
             in_range(k, v, 0.0, 1e6, "window area incl. frame, m²")?;
         }
-        in_range("g_value", self.g_value, 0.0, 1.0, "total solar energy transmittance of the glazing")?;
-        in_range("shading_factor", self.shading_factor, 0.0, 1.0, "shading reduction factor, 1 = unshaded")?;
-        in_range("frame_fraction", self.frame_fraction, 0.0, 0.9, "frame share of the window area")?;
+        in_range(
+            "g_value",
+            self.g_value,
+            0.0,
+            1.0,
+            "total solar energy transmittance of the glazing",
+        )?;
+        in_range(
+            "shading_factor",
+            self.shading_factor,
+            0.0,
+            1.0,
+            "shading reduction factor, 1 = unshaded",
+        )?;
+        in_range(
+            "frame_fraction",
+            self.frame_fraction,
+            0.0,
+            0.9,
+            "frame share of the window area",
+        )?;
         if let Some(r) = &self.roof_solar {
             in_range("roof_solar.area_m2", r.area_m2, 0.0, 1e6, "roof area, m²")?;
-            in_range("roof_solar.u_w_m2k", r.u_w_m2k, 0.0, 10.0, "roof U-value, W/(m²K)")?;
-            in_range("roof_solar.absorptance", r.absorptance, 0.0, 1.0, "roof solar absorptance")?;
+            in_range(
+                "roof_solar.u_w_m2k",
+                r.u_w_m2k,
+                0.0,
+                10.0,
+                "roof U-value, W/(m²K)",
+            )?;
+            in_range(
+                "roof_solar.absorptance",
+                r.absorptance,
+                0.0,
+                1.0,
+                "roof solar absorptance",
+            )?;
         }
         in_range(
             "internal_gains_w_m2",
@@ -257,8 +304,20 @@ impl BuildingSpec {
             200.0,
             "peak lights and equipment gains, W/m²",
         )?;
-        in_range("base_gains_w_m2", self.base_gains_w_m2, 0.0, 200.0, "constant internal gains, W/m²")?;
-        in_range("occupants", self.occupants, 0.0, 1e6, "number of occupants at full occupancy")?;
+        in_range(
+            "base_gains_w_m2",
+            self.base_gains_w_m2,
+            0.0,
+            200.0,
+            "constant internal gains, W/m²",
+        )?;
+        in_range(
+            "occupants",
+            self.occupants,
+            0.0,
+            1e6,
+            "number of occupants at full occupancy",
+        )?;
         in_range(
             "sensible_w_per_person",
             self.sensible_w_per_person,
@@ -280,9 +339,27 @@ impl BuildingSpec {
             1e8,
             "outdoor air flow at full occupancy, m³/h",
         )?;
-        in_range("infiltration_ach", self.infiltration_ach, 0.0, 10.0, "infiltration, air changes per hour")?;
-        in_range("t_heat_setpoint_c", self.t_heat_setpoint_c, 5.0, 30.0, "heating set-point, °C")?;
-        in_range("t_cool_setpoint_c", self.t_cool_setpoint_c, 15.0, 35.0, "cooling set-point, °C")?;
+        in_range(
+            "infiltration_ach",
+            self.infiltration_ach,
+            0.0,
+            10.0,
+            "infiltration, air changes per hour",
+        )?;
+        in_range(
+            "t_heat_setpoint_c",
+            self.t_heat_setpoint_c,
+            5.0,
+            30.0,
+            "heating set-point, °C",
+        )?;
+        in_range(
+            "t_cool_setpoint_c",
+            self.t_cool_setpoint_c,
+            15.0,
+            35.0,
+            "cooling set-point, °C",
+        )?;
         if self.t_heat_setpoint_c > self.t_cool_setpoint_c {
             return Err(Error::input(
                 "t_heat_setpoint_c",
@@ -299,17 +376,25 @@ impl BuildingSpec {
         if let Some(t) = self.t_cool_unoccupied_c {
             in_range("t_cool_unoccupied_c", t, 15.0, 45.0, "cooling set-up, °C")?;
         }
-        if let (Some(h), Some(c)) = (self.t_heat_unoccupied_c, self.t_cool_unoccupied_c) {
-            if h > c {
-                return Err(Error::input(
-                    "t_heat_unoccupied_c",
-                    h,
-                    format!("must not exceed t_cool_unoccupied_c = {c} °C"),
-                ));
-            }
+        if let (Some(h), Some(c)) = (self.t_heat_unoccupied_c, self.t_cool_unoccupied_c)
+            && h > c
+        {
+            return Err(Error::input(
+                "t_heat_unoccupied_c",
+                h,
+                format!("must not exceed t_cool_unoccupied_c = {c} °C"),
+            ));
         }
-        in_range("rh_setpoint_pct", self.rh_setpoint_pct, 20.0, 80.0, "indoor relative humidity, %")?;
-        self.schedule.validate().map_err(|e| e.within("", "schedule"))?;
+        in_range(
+            "rh_setpoint_pct",
+            self.rh_setpoint_pct,
+            20.0,
+            80.0,
+            "indoor relative humidity, %",
+        )?;
+        self.schedule
+            .validate()
+            .map_err(|e| e.within("", "schedule"))?;
         Network::from_spec(self).map(|_| ())
     }
 
@@ -321,7 +406,13 @@ impl BuildingSpec {
         let roof = self
             .roof_solar
             .map_or(0.0, |r| r.absorptance * R_SE_M2K_W * r.u_w_m2k * r.area_m2);
-        [f * w.north_m2, f * w.east_m2, f * w.south_m2, f * w.west_m2, roof]
+        [
+            f * w.north_m2,
+            f * w.east_m2,
+            f * w.south_m2,
+            f * w.west_m2,
+            roof,
+        ]
     }
 }
 
@@ -645,7 +736,13 @@ pub fn simulate(
             format!("must be exactly {HOURS} hours"),
         ));
     }
-    validate::in_range("w_in_kg_kg", w_in_kg_kg, 0.0, 0.05, "indoor humidity ratio, kg/kg")?;
+    validate::in_range(
+        "w_in_kg_kg",
+        w_in_kg_kg,
+        0.0,
+        0.05,
+        "indoor humidity ratio, kg/kg",
+    )?;
     // Range-check every hour; the key is only formatted for a failing value (no allocation
     // per hour).
     let check = |i: usize, name: &str, v: f64, lo: f64, hi: f64, meaning: &str| -> Result<()> {
@@ -656,12 +753,32 @@ pub fn simulate(
         }
     };
     for (i, inp) in inputs.iter().enumerate() {
-        check(i, "t_out_c", inp.t_out_c, -80.0, 70.0, "outdoor dry-bulb, °C")?;
-        check(i, "w_out_kg_kg", inp.w_out_kg_kg, 0.0, 0.2, "outdoor humidity ratio, kg/kg")?;
+        check(
+            i,
+            "t_out_c",
+            inp.t_out_c,
+            -80.0,
+            70.0,
+            "outdoor dry-bulb, °C",
+        )?;
+        check(
+            i,
+            "w_out_kg_kg",
+            inp.w_out_kg_kg,
+            0.0,
+            0.2,
+            "outdoor humidity ratio, kg/kg",
+        )?;
         for (k, s) in inp.solar_w_m2.iter().enumerate() {
             check(
                 i,
-                ["solar_w_m2[0]", "solar_w_m2[1]", "solar_w_m2[2]", "solar_w_m2[3]", "solar_w_m2[4]"][k],
+                [
+                    "solar_w_m2[0]",
+                    "solar_w_m2[1]",
+                    "solar_w_m2[2]",
+                    "solar_w_m2[3]",
+                    "solar_w_m2[4]",
+                ][k],
                 *s,
                 0.0,
                 2000.0,
@@ -797,16 +914,27 @@ mod tests {
         let mut s = office();
         s.g_value = 1.2;
         let e = s.validate().unwrap_err().to_string();
-        assert!(e.contains("g_value = 1.2") && e.contains("between 0 and 1"), "{e}");
+        assert!(
+            e.contains("g_value = 1.2") && e.contains("between 0 and 1"),
+            "{e}"
+        );
 
         let mut s = office();
         s.schedule.weekday.truncate(23);
         let e = s.validate().unwrap_err().to_string();
-        assert!(e.contains("schedule.weekday") && e.contains("exactly 24"), "{e}");
+        assert!(
+            e.contains("schedule.weekday") && e.contains("exactly 24"),
+            "{e}"
+        );
 
         let mut s = office();
         s.t_heat_setpoint_c = 27.0;
-        assert!(s.validate().unwrap_err().to_string().contains("t_heat_setpoint_c"));
+        assert!(
+            s.validate()
+                .unwrap_err()
+                .to_string()
+                .contains("t_heat_setpoint_c")
+        );
 
         // H_tr,op above H_tr,ms = 9.1 × 2.5 × 500 = 11 375 W/K cannot be split.
         let mut s = office();
@@ -816,7 +944,12 @@ mod tests {
 
         let mut s = office();
         s.windows.south_m2 = f64::NAN;
-        assert!(s.validate().unwrap_err().to_string().contains("windows.south_m2"));
+        assert!(
+            s.validate()
+                .unwrap_err()
+                .to_string()
+                .contains("windows.south_m2")
+        );
     }
 
     #[test]
@@ -858,7 +991,10 @@ mod tests {
         let expect_kw = net.steady_conductance_w_k(h_ve) * 9.0 / 1000.0;
         for h in [0, 4000, 8759] {
             let l = out.hours[h];
-            assert!((l.sensible_kw - expect_kw).abs() < 1e-6 * expect_kw, "{l:?} vs {expect_kw}");
+            assert!(
+                (l.sensible_kw - expect_kw).abs() < 1e-6 * expect_kw,
+                "{l:?} vs {expect_kw}"
+            );
             assert_eq!(l.heating_kw, 0.0);
             assert!((l.t_in_c - 26.0).abs() < 1e-9);
             // Drier outdoor air (0.008 < 0.0093) and no people: no latent load.
@@ -882,7 +1018,10 @@ mod tests {
         assert!((day.t_in_c - 26.0).abs() < 1e-9);
         // Monday 02:00: cooling off, free-floating, no loads.
         let night = out.hours[2];
-        assert_eq!((night.sensible_kw, night.latent_kw, night.heating_kw), (0.0, 0.0, 0.0));
+        assert_eq!(
+            (night.sensible_kw, night.latent_kw, night.heating_kw),
+            (0.0, 0.0, 0.0)
+        );
         assert!(night.t_in_c > 26.0, "{night:?}");
         // Saturday 10:00 (day 5): unoccupied.
         assert_eq!(out.hours[5 * 24 + 10].sensible_kw, 0.0);

@@ -97,7 +97,10 @@ mod tests {
         assert_eq!(s.at(10, 5), 0.0);
         assert_eq!(s.at(10, 6), 0.0);
         // 10 occupied hours a weekday, 50 a week.
-        let week: f64 = (0..7).flat_map(|d| (0..24).map(move |h| (h, d))).map(|(h, d)| s.at(h, d)).sum();
+        let week: f64 = (0..7)
+            .flat_map(|d| (0..24).map(move |h| (h, d)))
+            .map(|(h, d)| s.at(h, d))
+            .sum();
         assert_eq!(week, 50.0);
     }
 
