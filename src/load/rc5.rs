@@ -566,36 +566,62 @@ pub fn split_gains(net: &Network, phi_int_w: f64, phi_sol_w: f64) -> (f64, f64, 
     (phi_ia, phi_st, phi_m)
 }
 
-/// Node temperatures for a given Φ_HC (eqs. C.4–C.11, Crank–Nicolson on the mass node).
-/// Written so that H_ve = 0 (and H_tr,w = 0) are handled without division by zero:
+/// The hour's combined conductances (eqs. C.6–C.8) and the reciprocals the node equations
+/// divide by, computed once per hour and shared by the three solutions of [`step`].
+/// Written so that H_ve = 0 (and H_tr,w = 0) need no division by zero:
 /// `H_tr,1 / H_ve = H_tr,is / (H_ve + H_tr,is)`, `H_tr,3 / H_tr,2 = H_tr,ms / (H_tr,2 + H_tr,ms)`.
+struct Coeffs {
+    h1: f64,
+    k_is: f64,
+    k_ms: f64,
+    c_minus_g: f64,
+    inv_c_plus_g: f64,
+    inv_star: f64,
+    inv_air: f64,
+}
+
+#[inline]
+fn coeffs(net: &Network, h_ve: f64) -> Coeffs {
+    let h_is = net.h_tr_is_w_k;
+    let h_ms = net.h_tr_ms_w_k;
+    let inv_ve_is = 1.0 / (h_ve + h_is);
+    let h1 = h_ve * h_is * inv_ve_is; // C.6
+    let h2 = h1 + net.h_tr_w_w_k; // C.7
+    let k_ms = h_ms / (h2 + h_ms); // H_tr,3 / H_tr,2
+    let h3 = h2 * k_ms; // C.8
+    let c = net.c_m_j_k / 3600.0;
+    let g = 0.5 * (h3 + net.h_tr_em_w_k);
+    Coeffs {
+        h1,
+        k_is: h_is * inv_ve_is,
+        k_ms,
+        c_minus_g: c - g,
+        inv_c_plus_g: 1.0 / (c + g),
+        inv_star: 1.0 / (h_ms + net.h_tr_w_w_k + h1),
+        inv_air: inv_ve_is,
+    }
+}
+
+/// Node temperatures for a given Φ_HC (eqs. C.4, C.5, C.9–C.12; Crank–Nicolson on the mass).
 #[inline]
 fn solve(
     net: &Network,
+    k: &Coeffs,
     t_m_prev_c: f64,
     d: &HourDrive,
     gains: (f64, f64, f64),
     phi_hc_w: f64,
 ) -> StepResult {
     let (phi_ia, phi_st, phi_m) = gains;
-    let h_ve = d.h_ve_w_k;
-    let h_is = net.h_tr_is_w_k;
     let h_w = net.h_tr_w_w_k;
-    let h_ms = net.h_tr_ms_w_k;
-    let h_em = net.h_tr_em_w_k;
-    let h1 = h_ve * h_is / (h_ve + h_is); // C.6
-    let k_is = h_is / (h_ve + h_is); // H_tr,1 / H_ve
-    let h2 = h1 + h_w; // C.7
-    let h3 = h2 * h_ms / (h2 + h_ms); // C.8
-    // Terms at the star node from the air side and windows.
-    let star_src = phi_st + h_w * d.t_e_c + h1 * d.t_sup_c + k_is * (phi_ia + phi_hc_w);
-    let phi_mtot = phi_m + h_em * d.t_e_c + h_ms / (h2 + h_ms) * star_src; // C.5
-    let c = net.c_m_j_k / 3600.0;
-    let g = 0.5 * (h3 + h_em);
-    let t_m_end = (t_m_prev_c * (c - g) + phi_mtot) / (c + g); // C.4
+    // Terms at the star node from the air side and windows:
+    // Φ_st + H_tr,w θ_e + H_tr,1 (θ_sup + (Φ_ia + Φ_HC)/H_ve).
+    let star_src = phi_st + h_w * d.t_e_c + k.h1 * d.t_sup_c + k.k_is * (phi_ia + phi_hc_w);
+    let phi_mtot = phi_m + net.h_tr_em_w_k * d.t_e_c + k.k_ms * star_src; // C.5
+    let t_m_end = (t_m_prev_c * k.c_minus_g + phi_mtot) * k.inv_c_plus_g; // C.4
     let t_m = 0.5 * (t_m_end + t_m_prev_c); // C.9
-    let t_s = (h_ms * t_m + star_src) / (h_ms + h_w + h1); // C.10
-    let t_air = (h_is * t_s + h_ve * d.t_sup_c + phi_ia + phi_hc_w) / (h_is + h_ve); // C.11
+    let t_s = (net.h_tr_ms_w_k * t_m + star_src) * k.inv_star; // C.10
+    let t_air = (net.h_tr_is_w_k * t_s + d.h_ve_w_k * d.t_sup_c + phi_ia + phi_hc_w) * k.inv_air; // C.11
     StepResult {
         phi_hc_w,
         t_air_c: t_air,
@@ -621,7 +647,8 @@ fn solve(
 /// values propagate as NaN; [`simulate`] validates its inputs first.
 pub fn step(net: &Network, t_m_prev_c: f64, d: &HourDrive) -> StepResult {
     let gains = split_gains(net, d.phi_int_w, d.phi_sol_w);
-    let free = solve(net, t_m_prev_c, d, gains, 0.0);
+    let k = coeffs(net, d.h_ve_w_k);
+    let free = solve(net, &k, t_m_prev_c, d, gains, 0.0);
     let t0 = free.t_air_c;
     let t_set = if t0 < d.t_heat_set_c {
         d.t_heat_set_c
@@ -631,9 +658,9 @@ pub fn step(net: &Network, t_m_prev_c: f64, d: &HourDrive) -> StepResult {
         return free;
     };
     let phi10 = PHI_TEST_W_M2 * net.a_f_m2;
-    let t10 = solve(net, t_m_prev_c, d, gains, phi10).t_air_c;
+    let t10 = solve(net, &k, t_m_prev_c, d, gains, phi10).t_air_c;
     let phi_un = phi10 * (t_set - t0) / (t10 - t0); // C.13
-    solve(net, t_m_prev_c, d, gains, phi_un)
+    solve(net, &k, t_m_prev_c, d, gains, phi_un)
 }
 
 /// Latent cooling load of one hour, W (≥ 0).
@@ -657,6 +684,18 @@ pub fn latent_w(
 ) -> f64 {
     let vent = RHO_AIR_KG_M3 * air_m3_h / 3600.0 * (w_out_kg_kg - w_in_kg_kg) * H_FG_J_KG;
     (vent + people * latent_w_per_person).max(0.0)
+}
+
+/// Indoor humidity ratio the cooling plant holds, kg/kg: the humidity ratio of air at
+/// `t_cool_setpoint_c` and `rh_setpoint_pct`, `W = 0.621945 φ p_ws / (p − φ p_ws)` (ASHRAE
+/// Handbook—Fundamentals 2017 ch. 1 eqs. 20, 22, via `props::psychro::ratio_from_rh`).
+///
+/// * `p_kpa` – barometric pressure at the site, kPa
+///
+/// Example: 26 °C, 50 % at 101.325 kPa gives about 0.0105 kg/kg. Errors from the psychrometric
+/// routines (pressure or temperature outside their range) pass through.
+pub fn indoor_humidity_ratio(spec: &BuildingSpec, p_kpa: f64) -> Result<f64> {
+    crate::props::psychro::ratio_from_rh(spec.t_cool_setpoint_c, spec.rh_setpoint_pct, p_kpa)
 }
 
 /// Hours of warm-up before the year: the last 30 days of the year are run first, starting the
@@ -1077,6 +1116,14 @@ mod tests {
         eprintln!("5R1C year: {dt:?}");
         assert_eq!(out.hours.len(), HOURS);
         assert!(out.hours.iter().all(|h| h.t_in_c.is_finite()));
+    }
+
+    /// 26 °C, 50 % RH, 101.325 kPa: p_ws = 3.3629 kPa (ASHRAE Fundamentals 2017 ch. 1 Table 3,
+    /// from memory), p_w = 1.6815 kPa, W = 0.621945 × 1.6815 / (101.325 − 1.6815) = 0.010495.
+    #[test]
+    fn indoor_ratio_at_setpoint() {
+        let w = indoor_humidity_ratio(&office(), 101.325).unwrap();
+        assert!((w - 0.010495).abs() < 2e-5, "{w}");
     }
 
     #[test]
