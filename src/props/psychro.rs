@@ -20,6 +20,7 @@
 //!   a dew point of perfectly dry air does not exist and is an `OutOfRange` error).
 
 use crate::error::{Error, Result};
+use std::cmp::Ordering;
 
 /// Ratio of molar masses water/dry air used by ASHRAE 2017 eq. 20.
 const MW_RATIO: f64 = 0.621945;
@@ -71,7 +72,8 @@ pub fn saturation_pressure_kpa(t_c: f64) -> Result<f64> {
     let t = t_c + 273.15;
     let ln_p_pa = if t_c <= TRIPLE_POINT_C {
         // eq. 5, over ice: C1..C7
-        -5.674_535_9e3 / t + 6.392_524_7 - 9.677_843_0e-3 * t + 6.221_570_1e-7 * t * t
+        -5.674_535_9e3 / t + 6.392_524_7 - 9.677_843_0e-3 * t
+            + 6.221_570_1e-7 * t * t
             + 2.074_782_5e-9 * t.powi(3)
             - 9.484_024_0e-13 * t.powi(4)
             + 4.163_501_9 * t.ln()
@@ -219,14 +221,24 @@ pub fn saturation_ratio(t_c: f64, p_kpa: f64) -> Result<f64> {
     ratio_from_vapour_pressure(saturation_pressure_kpa(t_c)?, p_kpa)
 }
 
-/// Eq. 33 (t* ≥ 0 °C, water) / eq. 35 (t* < 0 °C, ice) without checks or floor.
+/// Eq. 33 (water on the bulb), without checks or floor.
+fn ratio_wet_bulb_water(t_db_c: f64, t_wb_c: f64, w_s_star: f64) -> f64 {
+    ((2501.0 - 2.326 * t_wb_c) * w_s_star - 1.006 * (t_db_c - t_wb_c))
+        / (2501.0 + 1.86 * t_db_c - 4.186 * t_wb_c)
+}
+
+/// Eq. 35 (ice on the bulb), without checks or floor.
+fn ratio_wet_bulb_ice(t_db_c: f64, t_wb_c: f64, w_s_star: f64) -> f64 {
+    ((2830.0 - 0.24 * t_wb_c) * w_s_star - 1.006 * (t_db_c - t_wb_c))
+        / (2830.0 + 1.86 * t_db_c - 2.1 * t_wb_c)
+}
+
+/// Eq. 33 for t* ≥ 0 °C, eq. 35 below, as the Handbook (and psychrolib) switch.
 fn ratio_wet_bulb_raw(t_db_c: f64, t_wb_c: f64, w_s_star: f64) -> f64 {
     if t_wb_c >= 0.0 {
-        ((2501.0 - 2.326 * t_wb_c) * w_s_star - 1.006 * (t_db_c - t_wb_c))
-            / (2501.0 + 1.86 * t_db_c - 4.186 * t_wb_c)
+        ratio_wet_bulb_water(t_db_c, t_wb_c, w_s_star)
     } else {
-        ((2830.0 - 0.24 * t_wb_c) * w_s_star - 1.006 * (t_db_c - t_wb_c))
-            / (2830.0 + 1.86 * t_db_c - 2.1 * t_wb_c)
+        ratio_wet_bulb_ice(t_db_c, t_wb_c, w_s_star)
     }
 }
 
@@ -243,7 +255,10 @@ fn ratio_wet_bulb_raw(t_db_c: f64, t_wb_c: f64, w_s_star: f64) -> f64 {
 /// gives W < 0 (no such state: air too dry for that wet-bulb). psychrolib floors such W at 1e-7.
 /// Source: ASHRAE Handbook—Fundamentals 2017 (SI), ch. 1, eqs. 33 and 35.
 pub fn ratio_from_wet_bulb(t_db_c: f64, t_wb_c: f64, p_kpa: f64) -> Result<f64> {
-    if !(t_wb_c <= t_db_c) {
+    if !matches!(
+        t_wb_c.partial_cmp(&t_db_c),
+        Some(Ordering::Less | Ordering::Equal)
+    ) {
         return Err(Error::OutOfRange {
             model: "ASHRAE 2017 wet-bulb",
             quantity: "t_wb_c",
@@ -266,9 +281,16 @@ pub fn ratio_from_wet_bulb(t_db_c: f64, t_wb_c: f64, p_kpa: f64) -> Result<f64> 
 }
 
 /// Thermodynamic wet-bulb temperature, °C, from dry-bulb and humidity ratio: the root t* of
-/// eq. 33 (t* ≥ 0) / eq. 35 (t* < 0) equal to `W`, solved by Brent's method on
-/// [−100 °C, t_db] to 1e-9 K (the residual is scaled by 2830/1.006 so its tolerance is also
-/// about 1e-9 K). Not an approximation formula.
+/// eq. 33 (t* ≥ 0, water on the bulb) or eq. 35 (t* < 0, ice) equal to `W`, solved by Brent's
+/// method to 1e-9 K (the residual is scaled by 2830/1.006 so that its tolerance is also about
+/// 1e-9 K). Not an approximation formula.
+///
+/// The two equations do not join at t* = 0: W from eq. 35 at 0 °C lies above W from eq. 33 at
+/// 0 °C (by ~4.6e-4 kg/kg at 10 °C dry-bulb), so in a narrow band of dry air above freezing
+/// both a water root (t* ≥ 0) and an ice root (t* < 0) exist. The Handbook does not say which
+/// holds; this function takes the water root whenever it exists (a wetted wick whose liquid
+/// equilibrium is at or above 0 °C never freezes). psychrolib 2.5.0's bisection returns either
+/// root in that band, depending on its bracket; see reference/scripts/make_psychro_psychrolib.py.
 ///
 /// * `t_db_c` – dry-bulb, °C (−100..200)
 /// * `w_kg_kg` – humidity ratio, kg/kg, `0 ≤ W ≤ W_s(t_db)`
@@ -282,20 +304,43 @@ pub fn wet_bulb_c(t_db_c: f64, w_kg_kg: f64, p_kpa: f64) -> Result<f64> {
     check_ratio(t_db_c, w_kg_kg, p_kpa)?;
     // Residual in kelvin-like units: dW/dt* ≥ 1.006/2830 everywhere (the sensible term).
     let scale = 2830.0 / 1.006;
-    let residual = |t_wb: f64| -> f64 {
+    let residual = |t_wb: f64, ice: bool| -> f64 {
         saturation_pressure_kpa(t_wb)
             .ok()
             .and_then(|pws| ratio_from_vapour_pressure(pws, p_kpa).ok())
             .map_or(f64::NAN, |w_s| {
-                (ratio_wet_bulb_raw(t_db_c, t_wb, w_s) - w_kg_kg) * scale
+                let w = if ice {
+                    ratio_wet_bulb_ice(t_db_c, t_wb, w_s)
+                } else {
+                    ratio_wet_bulb_water(t_db_c, t_wb, w_s)
+                };
+                (w - w_kg_kg) * scale
             })
     };
-    let at_db = residual(t_db_c);
-    if at_db.abs() <= 1e-9 {
-        return Ok(t_db_c);
+    if t_db_c >= 0.0 {
+        let at_db = residual(t_db_c, false);
+        if at_db.abs() <= 1e-9 {
+            return Ok(t_db_c);
+        }
+        if residual(0.0, false) <= 0.0 {
+            return crate::num::brent("wet-bulb (water)", 0.0, t_db_c, 1e-9, |t| {
+                residual(t, false)
+            });
+        }
     }
-    let at_lo = residual(T_MIN_C);
-    if !(at_lo < 0.0) {
+    let hi = t_db_c.min(0.0);
+    let at_hi = residual(hi, true);
+    if at_hi.abs() <= 1e-9 {
+        return Ok(hi);
+    }
+    if at_hi < 0.0 {
+        // Cannot happen for valid W: for t_db ≥ 0 eq. 35 at t* = 0 lies above eq. 33 at t* = 0,
+        // and for t_db < 0 the residual at t* = t_db is W_s(t_db) − W ≥ 0.
+        return Err(Error::Internal(format!(
+            "wet-bulb: no root for t_db = {t_db_c} °C, W = {w_kg_kg}, p = {p_kpa} kPa"
+        )));
+    }
+    if residual(T_MIN_C, true).partial_cmp(&0.0) != Some(Ordering::Less) {
         return Err(Error::OutOfRange {
             model: "ASHRAE 2017 wet-bulb",
             quantity: "w_kg_kg",
@@ -303,7 +348,7 @@ pub fn wet_bulb_c(t_db_c: f64, w_kg_kg: f64, p_kpa: f64) -> Result<f64> {
             range: format!("such that the wet-bulb at {t_db_c} °C lies above -100 °C"),
         });
     }
-    crate::num::brent("wet-bulb", T_MIN_C, t_db_c, 1e-9, residual)
+    crate::num::brent("wet-bulb (ice)", T_MIN_C, hi, 1e-9, |t| residual(t, true))
 }
 
 /// Moist-air enthalpy per kg dry air, kJ/kg: `h = 1.006 t + W (2501 + 1.86 t)` (eq. 32).
@@ -444,7 +489,10 @@ pub fn state_from_wet_bulb(t_c: f64, t_wb_c: f64, p_kpa: f64) -> Result<AirState
 /// The reported dew point is the given one. Source: ASHRAE Handbook—Fundamentals 2017 (SI), ch. 1,
 /// eq. 36 with eq. 20, then as [`state_from_ratio`].
 pub fn state_from_dew_point(t_c: f64, t_dp_c: f64, p_kpa: f64) -> Result<AirState> {
-    if !(t_dp_c <= t_c) {
+    if !matches!(
+        t_dp_c.partial_cmp(&t_c),
+        Some(Ordering::Less | Ordering::Equal)
+    ) {
         return Err(Error::OutOfRange {
             model: "ASHRAE 2017 psychrometrics",
             quantity: "t_dp_c",
@@ -516,7 +564,10 @@ mod tests {
     #[test]
     fn saturated_air_wet_bulb_and_dew_point_equal_dry_bulb() {
         let s = state_from_rh(24.0, 100.0, 101.325).unwrap();
-        assert!((s.t_wb_c - 24.0).abs() < 1e-7 && (s.t_dp_c - 24.0).abs() < 1e-7, "{s:?}");
+        assert!(
+            (s.t_wb_c - 24.0).abs() < 1e-7 && (s.t_dp_c - 24.0).abs() < 1e-7,
+            "{s:?}"
+        );
     }
 
     #[test]
@@ -533,6 +584,19 @@ mod tests {
         assert!(saturation_ratio(100.0, 101.325).is_err()); // boiling
         assert!(state_from_dew_point(20.0, 22.0, 101.325).is_err());
         assert!(state_from_rh(20.0, 0.0, 101.325).is_err());
+    }
+
+    /// Two roots just above freezing (10 °C, RH 10 %, 80 kPa): eq. 35 gives an ice root and
+    /// eq. 33 a water root for the same W; psychrolib 2.5.0's bisection returns the ice root
+    /// −0.3620256 °C here, this model the water root 0.2620798 °C (both from
+    /// reference/scripts/make_psychro_psychrolib.py).
+    #[test]
+    fn wet_bulb_two_roots_takes_water() {
+        let w = ratio_from_rh(10.0, 10.0, 80.0).unwrap();
+        let t_wb = wet_bulb_c(10.0, w, 80.0).unwrap();
+        assert!((t_wb - 0.262_079_775_268_659_9).abs() < 1e-7, "{t_wb}");
+        let w_ice = ratio_from_wet_bulb(10.0, -0.362_025_612_391_886_6, 80.0).unwrap();
+        assert!((w_ice - w).abs() < 1e-9, "{w_ice} {w}");
     }
 
     /// Dry air still has a wet-bulb (W = 0 is a valid input there).
