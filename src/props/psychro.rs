@@ -512,8 +512,8 @@ pub fn state_from_dew_point(t_c: f64, t_dp_c: f64, p_kpa: f64) -> Result<AirStat
 mod tests {
     use super::*;
 
-    /// ASHRAE Handbook—Fundamentals 2017 ch. 1 Table 3, as quoted in psychrolib 2.5.0's test
-    /// suite (tests/test_psychrolib_si.py): pws(25 °C) = 3.1697 kPa, pws(−20 °C) = 0.10324 kPa
+    /// ASHRAE Handbook—Fundamentals 2017 ch. 1 Table 3, as quoted in psychrolib's test
+    /// suite (psychrometrics/psychrolib, tests/test_psychrolib_si.py): pws(25 °C) = 3.1697 kPa, pws(−20 °C) = 0.10324 kPa
     /// over ice; the Handbook states eqs. 5/6 agree with the table within 300 ppm.
     #[test]
     fn saturation_pressure_table3() {
@@ -537,7 +537,7 @@ mod tests {
         assert!((dew_point_from_vapour_pressure(pw).unwrap() - 12.3).abs() < 1e-8);
     }
 
-    /// psychrolib 2.5.0 test suite (tests/test_psychrolib_si.py, values "calculated with Excel"):
+    /// psychrolib test suite (psychrometrics/psychrolib tests/test_psychrolib_si.py, values "calculated with Excel"):
     /// W(30 °C db, 25 °C wb, 95.461 kPa) = 0.0192281274241096; W(−1 °C, −5 °C) = 0.00120399819933844.
     #[test]
     fn wet_bulb_both_branches() {
@@ -549,7 +549,7 @@ mod tests {
         assert!((wet_bulb_c(-1.0, w, 95.461).unwrap() + 5.0).abs() < 1e-7);
     }
 
-    /// psychrolib 2.5.0 test suite: h(30 °C, W 0.02) = 81.316 kJ/kg; v(30 °C, 0.02, 95.461 kPa)
+    /// psychrolib test suite (same file): h(30 °C, W 0.02) = 81.316 kJ/kg; v(30 °C, 0.02, 95.461 kPa)
     /// = 0.940855374352943 m³/kg; ρ = 1.08411986348219 kg/m³.
     #[test]
     fn enthalpy_volume_density() {
