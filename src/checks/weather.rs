@@ -290,9 +290,10 @@ fn synthetic_checks() -> crate::Result<Vec<Check>> {
                 value: Bendt::new(k, synthetic::bendt_gamma_fit(k)).mean(),
                 expected: k,
                 tolerance: 0.005,
-                source: "Bendt et al. (1981) fitted γ = -1.498 + (1.184ξ - 27.182e^{-1.5ξ})/(b-a), \
+                source:
+                    "Bendt et al. (1981) fitted γ = -1.498 + (1.184ξ - 27.182e^{-1.5ξ})/(b-a), \
                          ξ = (b-a)/(b-K̄) (from memory); the distribution's mean must equal K̄T"
-                    .to_string(),
+                        .to_string(),
             });
         }
     }
@@ -320,6 +321,9 @@ mod tests {
                 c.tolerance
             );
         }
-        eprintln!("weather checks: {}, worst |diff|/tol = {worst:.3}", checks.len());
+        eprintln!(
+            "weather checks: {}, worst |diff|/tol = {worst:.3}",
+            checks.len()
+        );
     }
 }

@@ -98,8 +98,8 @@ mod tests {
         assert_eq!(erbs_diffuse_fraction(0.9), 0.165);
         // Continuity at the breakpoints is only approximate in the published fit:
         // at 0.22 the upper branch gives 0.9511 − 0.035288 + 0.212379 − 0.177165 + 0.028884.
-        let upper = 0.9511 - 0.1604 * 0.22 + 4.388 * 0.0484 - 16.638 * 0.010648
-            + 12.336 * 0.00234256;
+        let upper =
+            0.9511 - 0.1604 * 0.22 + 4.388 * 0.0484 - 16.638 * 0.010648 + 12.336 * 0.00234256;
         assert!((erbs_diffuse_fraction(0.22) - upper).abs() < 0.01);
     }
 

@@ -50,8 +50,8 @@ const SUBSTEPS: usize = 12;
 /// Source: ASHRAE Handbook—Fundamentals 2009 (SI) ch. 14 Table 6 (same in the 2013 and 2017
 /// editions); values from memory.
 pub const ASHRAE_RANGE_FRACTION: [f64; 24] = [
-    0.88, 0.92, 0.95, 0.98, 1.00, 0.98, 0.91, 0.74, 0.55, 0.38, 0.23, 0.13, 0.05, 0.00, 0.00,
-    0.06, 0.14, 0.24, 0.39, 0.50, 0.59, 0.68, 0.75, 0.82,
+    0.88, 0.92, 0.95, 0.98, 1.00, 0.98, 0.91, 0.74, 0.55, 0.38, 0.23, 0.13, 0.05, 0.00, 0.00, 0.06,
+    0.14, 0.24, 0.39, 0.50, 0.59, 0.68, 0.75, 0.82,
 ];
 
 /// Day-to-day scaling of the daily range with the day's clearness: `R_d = R̄ (1 + c (KT/K̄ − 1))`
@@ -125,20 +125,15 @@ impl MonthlyNormals {
                 "monthly mean relative humidity, %",
             )?,
             (None, Some(dp)) => {
-                validate::list(
-                    "t_dew_c",
-                    dp,
-                    12,
-                    -60.0,
-                    40.0,
-                    "monthly mean dew point, °C",
-                )?;
+                validate::list("t_dew_c", dp, 12, -60.0, 40.0, "monthly mean dew point, °C")?;
                 for (m, (&d, &t)) in dp.iter().zip(&self.t_mean_c).enumerate() {
                     if d > t {
                         return Err(Error::input(
                             format!("t_dew_c[{m}]"),
                             d,
-                            format!("must not exceed the month's mean dry-bulb t_mean_c[{m}] = {t} °C"),
+                            format!(
+                                "must not exceed the month's mean dry-bulb t_mean_c[{m}] = {t} °C"
+                            ),
                         ));
                     }
                 }
@@ -520,7 +515,9 @@ pub fn synthesize(
             .iter()
             .zip(&n.t_mean_c)
             .enumerate()
-            .map(|(m, (&r, &t))| dew_point_from_rh_c(t, r).map_err(|e| e.within("", &format!("rh_pct[{m}]"))))
+            .map(|(m, (&r, &t))| {
+                dew_point_from_rh_c(t, r).map_err(|e| e.within("", &format!("rh_pct[{m}]")))
+            })
             .collect::<Result<Vec<f64>>>()?,
         (None, None) => return Err(Error::Internal("validated normals lack humidity".into())),
     };
@@ -561,8 +558,16 @@ pub fn synthesize(
             let range = n.t_range_k[m] * (1.0 + RANGE_KT_COUPLING * (kt[day] / kbar_days - 1.0));
             let t_max = t_day[day] + range / 2.0;
             for h in 0..24 {
-                let ghi = if st > 0.0 { h_day * wt[h] / st / 3600.0 } else { 0.0 };
-                let mut dhi = if sd > 0.0 { (hd_day * wd[h] / sd / 3600.0).min(ghi) } else { 0.0 };
+                let ghi = if st > 0.0 {
+                    h_day * wt[h] / st / 3600.0
+                } else {
+                    0.0
+                };
+                let mut dhi = if sd > 0.0 {
+                    (hd_day * wd[h] / sd / 3600.0).min(ghi)
+                } else {
+                    0.0
+                };
                 let w = hour_angle_at(h as f64 + 0.5, doy, longitude_deg, utc_offset_h);
                 let cz = geo::cos_zenith(latitude_deg, decl, w);
                 let mut dni = 0.0;
@@ -611,7 +616,13 @@ pub fn synthesize(
 /// Errors as [`synthesize`].
 pub fn daily_clearness(n: &MonthlyNormals, latitude_deg: f64) -> Result<(Vec<f64>, [f64; 12])> {
     n.validate()?;
-    validate::in_range("latitude_deg", latitude_deg, -66.0, 66.0, "site latitude, degrees north")?;
+    validate::in_range(
+        "latitude_deg",
+        latitude_deg,
+        -66.0,
+        66.0,
+        "site latitude, degrees north",
+    )?;
     let h0: Vec<f64> = (1..=365u32)
         .map(|d| geo::daily_extraterrestrial_j_m2(d, latitude_deg))
         .collect();
@@ -625,10 +636,14 @@ mod tests {
     pub(crate) fn demo() -> MonthlyNormals {
         MonthlyNormals {
             ghi_kwh_m2_day: vec![4.6, 5.3, 5.9, 6.1, 5.6, 5.0, 4.9, 4.8, 4.7, 4.6, 4.4, 4.3],
-            t_mean_c: vec![26.5, 27.2, 28.3, 29.4, 29.3, 28.8, 28.4, 28.3, 27.9, 27.6, 27.2, 26.6],
+            t_mean_c: vec![
+                26.5, 27.2, 28.3, 29.4, 29.3, 28.8, 28.4, 28.3, 27.9, 27.6, 27.2, 26.6,
+            ],
             t_range_k: vec![8.0, 8.2, 8.0, 7.6, 7.0, 6.4, 6.2, 6.2, 6.4, 6.8, 7.4, 7.8],
             rh_pct: None,
-            t_dew_c: Some(vec![21.0, 22.0, 23.0, 24.0, 24.5, 24.5, 24.2, 24.2, 24.0, 23.5, 22.5, 21.2]),
+            t_dew_c: Some(vec![
+                21.0, 22.0, 23.0, 24.0, 24.5, 24.5, 24.2, 24.2, 24.0, 23.5, 22.5, 21.2,
+            ]),
             seed: 7,
         }
     }
@@ -698,7 +713,9 @@ mod tests {
         let mut n3 = n.clone();
         n3.seed = 8;
         let y3 = synthesize(&n3, 12.8, 45.3, 3.0, 10.0).unwrap();
-        let diff: f64 = (0..HOURS).map(|i| (y.hours[i].ghi_w_m2 - y3.hours[i].ghi_w_m2).abs()).sum();
+        let diff: f64 = (0..HOURS)
+            .map(|i| (y.hours[i].ghi_w_m2 - y3.hours[i].ghi_w_m2).abs())
+            .sum();
         assert!(diff > 0.0);
     }
 
@@ -706,7 +723,9 @@ mod tests {
     fn bad_normals_are_errors() {
         let mut n = demo();
         n.ghi_kwh_m2_day[3] = 11.5; // above extraterrestrial at 12.8° N in April (~10.4)
-        let e = synthesize(&n, 12.8, 45.3, 3.0, 10.0).unwrap_err().to_string();
+        let e = synthesize(&n, 12.8, 45.3, 3.0, 10.0)
+            .unwrap_err()
+            .to_string();
         assert!(e.contains("ghi_kwh_m2_day[3]"), "{e}");
         let mut n = demo();
         n.rh_pct = Some(vec![60.0; 12]);
