@@ -696,7 +696,7 @@ mod tests {
     #[test]
     fn synthetic_year_is_sane_and_deterministic() {
         let n = demo();
-        let y = synthesize(&n, 12.8, 45.3, 3.0, 10.0).unwrap();
+        let y = synthesize(&n, 11.7, 88.1, 6.0, 5.0).unwrap();
         assert_eq!(y.hours.len(), HOURS);
         for h in &y.hours {
             assert!(h.ghi_w_m2 >= 0.0 && h.ghi_w_m2 < 1367.0);
@@ -708,22 +708,55 @@ mod tests {
                 panic!("humidity kind");
             }
         }
-        let y2 = synthesize(&n, 12.8, 45.3, 3.0, 10.0).unwrap();
+        let y2 = synthesize(&n, 11.7, 88.1, 6.0, 5.0).unwrap();
         assert_eq!(y.hours[4000].ghi_w_m2, y2.hours[4000].ghi_w_m2);
         let mut n3 = n.clone();
         n3.seed = 8;
-        let y3 = synthesize(&n3, 12.8, 45.3, 3.0, 10.0).unwrap();
+        let y3 = synthesize(&n3, 11.7, 88.1, 6.0, 5.0).unwrap();
         let diff: f64 = (0..HOURS)
             .map(|i| (y.hours[i].ghi_w_m2 - y3.hours[i].ghi_w_m2).abs())
             .sum();
         assert!(diff > 0.0);
     }
 
+    /// Each synthetic day's hourly GHI sums to that day's `KT·H0` exactly (renormalised
+    /// `r_t`), and the hourly diffuse never exceeds the global.
+    #[test]
+    fn hourly_sums_reproduce_daily_totals() {
+        let n = demo();
+        let (lat, lon, utc) = (11.7, 88.1, 6.0);
+        let y = synthesize(&n, lat, lon, utc, 5.0).unwrap();
+        let (kt, _) = daily_clearness(&n, lat).unwrap();
+        for d in 0..365 {
+            let h_j: f64 = y.hours[d * 24..d * 24 + 24]
+                .iter()
+                .map(|h| h.ghi_w_m2 * 3600.0)
+                .sum();
+            let expected = kt[d] * geo::daily_extraterrestrial_j_m2(d as u32 + 1, lat);
+            assert!(
+                (h_j - expected).abs() < 1e-6 * expected,
+                "day {d}: {h_j} vs {expected}"
+            );
+        }
+    }
+
+    /// Conditions of Duffie & Beckman 4th ed. Example 2.13.1 (φ = 43°, 23 August, n = 235,
+    /// hour 10–11 solar time, ω = −22.5°): hand evaluation of eq. 2.13.2 with Cooper's
+    /// declination δ = 11.0°, ωs = 100.4°: a = 0.7341, b = 0.3519, r_t = 0.1179
+    /// (the book's r_t ≈ 0.118, from memory).
+    #[test]
+    fn rt_example_2_13_1() {
+        let ws = geo::sunset_hour_angle_deg(43.0, geo::declination_cooper_deg(235));
+        assert!((ws - 100.4).abs() < 0.1, "ws = {ws}");
+        let rt = collares_pereira_rabl_rt(-22.5, ws);
+        assert!((rt - 0.1179).abs() < 0.0005, "r_t = {rt}");
+    }
+
     #[test]
     fn bad_normals_are_errors() {
         let mut n = demo();
-        n.ghi_kwh_m2_day[3] = 11.5; // above extraterrestrial at 12.8° N in April (~10.4)
-        let e = synthesize(&n, 12.8, 45.3, 3.0, 10.0)
+        n.ghi_kwh_m2_day[3] = 11.5; // above extraterrestrial at 11.7° N in April (H0 ≈ 10.4)
+        let e = synthesize(&n, 11.7, 88.1, 6.0, 5.0)
             .unwrap_err()
             .to_string();
         assert!(e.contains("ghi_kwh_m2_day[3]"), "{e}");
