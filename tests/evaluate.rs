@@ -10,7 +10,7 @@ fn demo(name: &str) -> parhelion::feasibility::Evaluation {
     build::evaluate(&l).unwrap_or_else(|e| panic!("{name}: {e}"))
 }
 
-const DEMOS: [&str; 3] = ["port-calder-clinic", "ilvar-plateau-office", "starter"];
+const DEMOS: [&str; 2] = ["port-meridian-clinic", "qasr-alvar-office"];
 
 #[test]
 fn every_hour_balances() {
@@ -49,7 +49,7 @@ fn every_hour_balances() {
 
 #[test]
 fn solar_heat_serves_the_heat_demand_in_each_demo() {
-    for name in ["port-calder-clinic", "ilvar-plateau-office"] {
+    for name in ["port-meridian-clinic", "qasr-alvar-office"] {
         let ev = demo(name);
         let with_field: Vec<_> = ev.options.iter().filter(|o| o.gross_m2 > 0.0).collect();
         assert!(!with_field.is_empty(), "{name}: a demo has an option with a solar field");
@@ -67,7 +67,7 @@ fn solar_heat_serves_the_heat_demand_in_each_demo() {
 
 #[test]
 fn electric_reference_meets_load_with_plausible_cop() {
-    for name in ["port-calder-clinic", "ilvar-plateau-office"] {
+    for name in ["port-meridian-clinic", "qasr-alvar-office"] {
         let ev = demo(name);
         let r = ev.options.iter().find(|o| o.option == ev.reference).unwrap();
         let a = &r.annual;

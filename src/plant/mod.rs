@@ -89,8 +89,6 @@ pub struct YearInputs<'a> {
 /// A planned draw on the store for one sub-step.
 #[derive(Debug, Clone, Copy, Default)]
 struct Draw {
-    /// Heat wanted in the sub-step, J.
-    want_j: f64,
     /// Store stream (zero flow when the store cannot help).
     flow_kg_s: f64,
     t_return_c: f64,
@@ -101,12 +99,11 @@ struct Draw {
 /// when it is warmer than the return but short of the need, the full flow passes and the
 /// boiler lifts it; when it is colder than the return, the store is bypassed.
 fn plan_draw(power_w: f64, t_need_c: f64, t_return_c: f64, t_top_c: f64, cp: f64) -> Draw {
-    let want_j = power_w * DT_S;
     if power_w <= 0.0 || t_top_c <= t_return_c + 0.1 {
-        return Draw { want_j, flow_kg_s: 0.0, t_return_c };
+        return Draw { flow_kg_s: 0.0, t_return_c };
     }
     let lift = if t_top_c >= t_need_c { t_top_c - t_return_c } else { t_need_c - t_return_c };
-    Draw { want_j, flow_kg_s: power_w / (cp * lift), t_return_c }
+    Draw { flow_kg_s: power_w / (cp * lift), t_return_c }
 }
 
 /// Run one option over the year; one record per hour.
@@ -136,7 +133,6 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             let mut q_collected_j = 0.0;
             let mut q_loss_j = 0.0;
             let mut q_in_sum_j = 0.0;
-            let mut delta_j = 0.0;
             for _ in 0..SUBSTEPS {
                 let (t_top, t_bot) = (s.store.t_top_c(), s.store.t_bottom_c());
                 // Collector loop: differential thermostat with dead-band, store maximum.
@@ -197,7 +193,6 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 demand_solar_j += -(r.q_in_j[2] + r.q_in_j[3]);
                 q_in_sum_j += r.q_in_j[..n].iter().sum::<f64>();
                 q_loss_j += r.q_loss_j;
-                delta_j += r.delta_stored_j;
             }
             let stored1 = s.store.stored_j();
             rec.solar_heat_kwh = q_collected_j / J_PER_KWH;
@@ -205,7 +200,6 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             // Closure from the store's own end states, independent of its reported Δ.
             rec.balance_error_kwh = (q_in_sum_j - q_loss_j - (stored1 - stored0)) / J_PER_KWH;
             rec.balance_error_rel = (rec.balance_error_kwh * J_PER_KWH).abs() / stored1.abs().max(1.0);
-            let _ = delta_j;
             rec.t_store_c = Some(s.store.t_mean_c());
             rec.t_store_top_c = Some(s.store.t_top_c());
             rec.pump_kwh = s.pump_w * rec.pump_hours / 1000.0;

@@ -1,1 +1,1 @@
-pub const STARTER: &str = include_str!("../../scenarios/starter.toml");
+pub const STARTER: &str = include_str!("../../scenarios/port-meridian-clinic.toml");

@@ -10,7 +10,7 @@ use parhelion::scenario::{self, build};
 use std::hint::black_box;
 use std::path::Path;
 
-const DEMOS: [&str; 2] = ["port-calder-clinic", "ilvar-plateau-office"];
+const DEMOS: [&str; 2] = ["port-meridian-clinic", "qasr-alvar-office"];
 
 fn year(c: &mut Criterion) {
     for demo in DEMOS {
