@@ -63,7 +63,11 @@ fn main() -> ExitCode {
         Ok(code) => code,
         Err(e) => {
             eprintln!("error: {e}");
-            if e.is_bad_input() { ExitCode::from(2) } else { ExitCode::from(1) }
+            if e.is_bad_input() {
+                ExitCode::from(2)
+            } else {
+                ExitCode::from(1)
+            }
         }
     }
 }
@@ -83,16 +87,23 @@ fn print(s: &str) -> Result<(), Error> {
     let mut out = std::io::stdout().lock();
     // A closed pipe (`| head`) is not a failure of the run.
     match out.write_all(s.as_bytes()).and_then(|_| out.flush()) {
-        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => {
-            Err(Error::Write { path: PathBuf::from("(standard output)"), source: e })
-        }
+        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(Error::Write {
+            path: PathBuf::from("(standard output)"),
+            source: e,
+        }),
         _ => Ok(()),
     }
 }
 
 fn run(cli: Cli) -> Result<ExitCode, Error> {
     match cli.verb {
-        Verb::Evaluate { scenario: path, hourly, json, monthly, quiet } => {
+        Verb::Evaluate {
+            scenario: path,
+            hourly,
+            json,
+            monthly,
+            quiet,
+        } => {
             let l = scenario::load(&path)?;
             let inputs = inputs_of(&l);
             if let Some(h) = &hourly {
@@ -106,7 +117,9 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 write_atomic(h, &parhelion::report::hourly::render(&ev)?)?;
             }
             match json.as_deref() {
-                Some("-") => print(&String::from_utf8_lossy(&parhelion::report::json::render(&ev)?))?,
+                Some("-") => print(&String::from_utf8_lossy(&parhelion::report::json::render(
+                    &ev,
+                )?))?,
                 Some(j) => write_atomic(Path::new(j), &parhelion::report::json::render(&ev)?)?,
                 None => {}
             }
@@ -138,7 +151,10 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             ))?;
             Ok(ExitCode::SUCCESS)
         }
-        Verb::Weather { scenario: path, csv } => {
+        Verb::Weather {
+            scenario: path,
+            csv,
+        } => {
             let l = scenario::load(&path)?;
             if let Some(c) = &csv {
                 refuse_input(c, &inputs_of(&l))?;

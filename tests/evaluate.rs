@@ -16,23 +16,46 @@ const DEMOS: [&str; 2] = ["port-meridian-clinic", "qasr-alvar-office"];
 fn every_hour_balances() {
     for name in DEMOS {
         let ev = demo(name);
-        assert!(ev.options.len() >= 2, "{name}: a demo compares at least two options");
+        assert!(
+            ev.options.len() >= 2,
+            "{name}: a demo compares at least two options"
+        );
         for o in &ev.options {
             assert_eq!(o.hours.len(), 8760, "{name}/{}", o.option);
             for r in &o.hours {
                 let ctx = format!("{name}/{} hour {}", o.option, r.hour);
                 // Cooling delivered plus unmet is the load.
-                assert!((r.cooling_kwh + r.unmet_kwh - r.load_kwh).abs() < 1e-9, "{ctx}");
+                assert!(
+                    (r.cooling_kwh + r.unmet_kwh - r.load_kwh).abs() < 1e-9,
+                    "{ctx}"
+                );
                 // The heat demand is met by solar and backup together (never less).
-                assert!(r.heat_demand_solar_kwh + (r.backup_heat_kwh - (r.heat_to_route_kwh - r.route_solar_kwh))
-                    >= r.heat_demand_kwh - 1e-9, "{ctx}");
+                assert!(
+                    r.heat_demand_solar_kwh
+                        + (r.backup_heat_kwh - (r.heat_to_route_kwh - r.route_solar_kwh))
+                        >= r.heat_demand_kwh - 1e-9,
+                    "{ctx}"
+                );
                 // Store energy balance closes to 0.1 % of the energy stored, every hour.
-                assert!(r.balance_error_rel < 1e-3, "{ctx}: closure {}", r.balance_error_rel);
-                for v in [r.cooling_kwh, r.electricity_kwh, r.solar_heat_kwh, r.backup_heat_kwh, r.fuel_kwh] {
+                assert!(
+                    r.balance_error_rel < 1e-3,
+                    "{ctx}: closure {}",
+                    r.balance_error_rel
+                );
+                for v in [
+                    r.cooling_kwh,
+                    r.electricity_kwh,
+                    r.solar_heat_kwh,
+                    r.backup_heat_kwh,
+                    r.fuel_kwh,
+                ] {
                     assert!(v.is_finite() && v >= -1e-12, "{ctx}: {v}");
                 }
                 if let Some(t) = r.t_store_c {
-                    assert!(t.is_finite() && (-10.0..=100.0).contains(&t), "{ctx}: store {t} °C");
+                    assert!(
+                        t.is_finite() && (-10.0..=100.0).contains(&t),
+                        "{ctx}: store {t} °C"
+                    );
                 }
             }
             let a = &o.annual;
@@ -52,13 +75,20 @@ fn solar_heat_serves_the_heat_demand_in_each_demo() {
     for name in ["port-meridian-clinic", "qasr-alvar-office"] {
         let ev = demo(name);
         let with_field: Vec<_> = ev.options.iter().filter(|o| o.gross_m2 > 0.0).collect();
-        assert!(!with_field.is_empty(), "{name}: a demo has an option with a solar field");
+        assert!(
+            !with_field.is_empty(),
+            "{name}: a demo has an option with a solar field"
+        );
         for o in with_field {
             let a = &o.annual;
             let y = a.collector_yield_kwh_m2.unwrap_or(0.0);
             // A working solar hot-water field in a sunny climate yields a few hundred kWh/m²
             // a year (common practice: 300–900 kWh/m² for flat plates in hot climates).
-            assert!((200.0..1200.0).contains(&y), "{name}/{}: yield {y} kWh/m²", o.option);
+            assert!(
+                (200.0..1200.0).contains(&y),
+                "{name}/{}: yield {y} kWh/m²",
+                o.option
+            );
             let sf = a.solar_fraction_heat_demand.unwrap_or(0.0);
             assert!(sf > 0.2 && sf <= 1.0, "{name}/{}: SF {sf}", o.option);
         }
@@ -69,11 +99,21 @@ fn solar_heat_serves_the_heat_demand_in_each_demo() {
 fn electric_reference_meets_load_with_plausible_cop() {
     for name in ["port-meridian-clinic", "qasr-alvar-office"] {
         let ev = demo(name);
-        let r = ev.options.iter().find(|o| o.option == ev.reference).unwrap();
+        let r = ev
+            .options
+            .iter()
+            .find(|o| o.option == ev.reference)
+            .unwrap();
         let a = &r.annual;
         assert!(a.load_kwh > 0.0);
         let cop = a.cop_electric.unwrap();
-        // Seasonal COP of a chiller plant (chiller only, no tower or pumps) about 3–8 (common practice).
-        assert!((3.0..8.0).contains(&cop), "{name}: seasonal COP {cop}");
+        // Seasonal COP of the chiller alone (no tower fans or pumps yet): water-cooled about
+        // 4–8, air-cooled about 2.3–4.5 (common practice).
+        let range = if name.contains("office") {
+            2.3..4.5
+        } else {
+            4.0..8.0
+        };
+        assert!(range.contains(&cop), "{name}: seasonal COP {cop}");
     }
 }

@@ -53,6 +53,11 @@ pub enum Inlet {
     /// mean is a return: it enters the lowest node warmer than itself (the top node if none is),
     /// flows up and leaves from the top. (Duffie & Beckman 4th ed. §8.4 control functions.)
     Stratified,
+    /// Charging stratifier: whatever its temperature, the stream enters the highest node colder
+    /// than itself (the bottom node if none is), flows down and leaves from the bottom — the
+    /// collector loop's return always draws from the bottom, and lukewarm collector water never
+    /// stirs the hot top.
+    StratifiedCharge,
 }
 
 /// A stream through the tank during a step: `flow_kg_s` enters at `inlet` at `t_in_c`; the same
@@ -402,6 +407,13 @@ impl Tank {
         match inlet {
             Inlet::Top => (0, true),
             Inlet::Bottom => (n - 1, false),
+            Inlet::StratifiedCharge => {
+                let k = self.t_c[..n]
+                    .iter()
+                    .position(|&t| t < t_in_c)
+                    .unwrap_or(n - 1);
+                (k, true)
+            }
             Inlet::Stratified => {
                 if t_in_c >= t_mean_c {
                     let k = self.t_c[..n]
@@ -420,7 +432,7 @@ impl Tank {
     /// Temperature of the node a stream would leave from now.
     fn outlet_node_temp(&self, s: &Stream) -> f64 {
         let down = match s.inlet {
-            Inlet::Top => true,
+            Inlet::Top | Inlet::StratifiedCharge => true,
             Inlet::Bottom => false,
             Inlet::Stratified => !s.t_in_c.is_finite() || s.t_in_c >= self.t_mean_c(),
         };
@@ -611,10 +623,11 @@ mod tests {
     }
 
     fn inlet_of(i: u8) -> Inlet {
-        match i % 3 {
+        match i % 4 {
             0 => Inlet::Top,
             1 => Inlet::Bottom,
-            _ => Inlet::Stratified,
+            2 => Inlet::Stratified,
+            _ => Inlet::StratifiedCharge,
         }
     }
 

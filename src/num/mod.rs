@@ -6,7 +6,10 @@ use roots::{SimpleConvergency, find_root_brent};
 /// Root of `f` in `[a, b]` by Brent's method (`roots` crate), to absolute tolerance `tol` on x.
 /// `f(a)` and `f(b)` must differ in sign; otherwise an `Internal` error naming `what`.
 pub fn brent(what: &str, a: f64, b: f64, tol: f64, f: impl Fn(f64) -> f64) -> Result<f64> {
-    let mut conv = SimpleConvergency { eps: tol, max_iter: 200 };
+    let mut conv = SimpleConvergency {
+        eps: tol,
+        max_iter: 200,
+    };
     find_root_brent(a, b, &f, &mut conv)
         .map_err(|e| Error::Internal(format!("{what}: root not found in [{a}, {b}]: {e:?}")))
 }
@@ -23,7 +26,11 @@ pub fn interp(table: &[(f64, f64)], x: f64) -> f64 {
             for w in table.windows(2) {
                 let ((x0, y0), (x1, y1)) = (w[0], w[1]);
                 if x <= x1 {
-                    return if x1 > x0 { y0 + (y1 - y0) * (x - x0) / (x1 - x0) } else { y1 };
+                    return if x1 > x0 {
+                        y0 + (y1 - y0) * (x - x0) / (x1 - x0)
+                    } else {
+                        y1
+                    };
                 }
             }
             table[table.len() - 1].1

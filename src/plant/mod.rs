@@ -100,10 +100,20 @@ struct Draw {
 /// boiler lifts it; when it is colder than the return, the store is bypassed.
 fn plan_draw(power_w: f64, t_need_c: f64, t_return_c: f64, t_top_c: f64, cp: f64) -> Draw {
     if power_w <= 0.0 || t_top_c <= t_return_c + 0.1 {
-        return Draw { flow_kg_s: 0.0, t_return_c };
+        return Draw {
+            flow_kg_s: 0.0,
+            t_return_c,
+        };
     }
-    let lift = if t_top_c >= t_need_c { t_top_c - t_return_c } else { t_need_c - t_return_c };
-    Draw { flow_kg_s: power_w / (cp * lift), t_return_c }
+    let lift = if t_top_c >= t_need_c {
+        t_top_c - t_return_c
+    } else {
+        t_need_c - t_return_c
+    };
+    Draw {
+        flow_kg_s: power_w / (cp * lift),
+        t_return_c,
+    }
 }
 
 /// Run one option over the year; one record per hour.
@@ -112,7 +122,11 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
     let mut pump_on = false;
     let mut out = Vec::with_capacity(y.conditions.len());
     for (i, c) in y.conditions.iter().enumerate() {
-        let hd = if opt.serves_heat_demand { y.heat_demand[i] } else { HeatDemandHour::default() };
+        let hd = if opt.serves_heat_demand {
+            y.heat_demand[i]
+        } else {
+            HeatDemandHour::default()
+        };
         let hd_all = y.heat_demand[i];
         let mut rec = HourRecord {
             hour: i,
@@ -136,11 +150,19 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             for _ in 0..SUBSTEPS {
                 let (t_top, t_bot) = (s.store.t_top_c(), s.store.t_bottom_c());
                 // Collector loop: differential thermostat with dead-band, store maximum.
-                let mut streams = [Stream { flow_kg_s: 0.0, t_in_c: 0.0, inlet: crate::components::tank::Inlet::Top }; MAX_STREAMS];
+                let mut streams = [Stream {
+                    flow_kg_s: 0.0,
+                    t_in_c: 0.0,
+                    inlet: crate::components::tank::Inlet::Top,
+                }; MAX_STREAMS];
                 let mut n = 1;
                 let gain_possible = rec.poa_w_m2 > 0.0
-                    && s.field.no_flow_temp_c(poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, c.t_db_c)
-                        > t_bot + s.dt_on_k;
+                    && s.field.no_flow_temp_c(
+                        poa.beam_w_m2,
+                        poa.diffuse_w_m2(),
+                        poa.aoi_deg,
+                        c.t_db_c,
+                    ) > t_bot + s.dt_on_k;
                 if t_top >= s.t_max_c {
                     if gain_possible {
                         rec.stagnation = true;
@@ -161,10 +183,28 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 // Draws: the route's, then hot water, then space heating, in priority order.
                 let mut draws = [Draw::default(); 3];
                 if let Some(r) = request {
-                    draws[0] = plan_draw(r.heat_kwh * 1000.0, r.t_supply_c, r.t_return_c, t_top, s.cp_j_kgk);
+                    draws[0] = plan_draw(
+                        r.heat_kwh * 1000.0,
+                        r.t_supply_c,
+                        r.t_return_c,
+                        t_top,
+                        s.cp_j_kgk,
+                    );
                 }
-                draws[1] = plan_draw(hd.dhw_kwh * 1000.0, hd.t_dhw_c, hd.t_cold_c, t_top, s.cp_j_kgk);
-                draws[2] = plan_draw(hd.sh_kwh * 1000.0, hd.t_sh_supply_c, hd.t_sh_return_c, t_top, s.cp_j_kgk);
+                draws[1] = plan_draw(
+                    hd.dhw_kwh * 1000.0,
+                    hd.t_dhw_c,
+                    hd.t_cold_c,
+                    t_top,
+                    s.cp_j_kgk,
+                );
+                draws[2] = plan_draw(
+                    hd.sh_kwh * 1000.0,
+                    hd.t_sh_supply_c,
+                    hd.t_sh_return_c,
+                    t_top,
+                    s.cp_j_kgk,
+                );
                 if let Some(r) = request {
                     let route_short = t_top < r.t_supply_c;
                     match y.priority {
@@ -199,7 +239,8 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             rec.store_loss_kwh = q_loss_j / J_PER_KWH;
             // Closure from the store's own end states, independent of its reported Δ.
             rec.balance_error_kwh = (q_in_sum_j - q_loss_j - (stored1 - stored0)) / J_PER_KWH;
-            rec.balance_error_rel = (rec.balance_error_kwh * J_PER_KWH).abs() / stored1.abs().max(1.0);
+            rec.balance_error_rel =
+                (rec.balance_error_kwh * J_PER_KWH).abs() / stored1.abs().max(1.0);
             rec.t_store_c = Some(s.store.t_mean_c());
             rec.t_store_top_c = Some(s.store.t_top_c());
             rec.pump_kwh = s.pump_w * rec.pump_hours / 1000.0;
@@ -207,7 +248,10 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         // Route: solar heat it got, backup for the rest of what it asked.
         let heat = request.map(|r| {
             let solar_kwh = (route_solar_j / J_PER_KWH).max(0.0);
-            HeatSupplied { solar_kwh, backup_kwh: (r.heat_kwh - solar_kwh).max(0.0) }
+            HeatSupplied {
+                solar_kwh,
+                backup_kwh: (r.heat_kwh - solar_kwh).max(0.0),
+            }
         });
         let rh: RouteHour = opt.route.run(c, heat);
         if let Some(h) = heat {
@@ -237,8 +281,21 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
 /// effectiveness ε, the collector inlet is `t_co − ε (t_co − t_store)` and the store receives
 /// `t_store + ε (t_co − t_store)`; the collector inlet is found by fixed-point iteration
 /// (a contraction: the collector outlet rises less than its inlet).
-fn collector_loop(s: &SolarLoop, poa: &PlaneIrradiance, t_store_c: f64, t_amb_c: f64) -> (f64, f64) {
-    let run = |t_in: f64| s.field.run(t_in, poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, t_amb_c);
+fn collector_loop(
+    s: &SolarLoop,
+    poa: &PlaneIrradiance,
+    t_store_c: f64,
+    t_amb_c: f64,
+) -> (f64, f64) {
+    let run = |t_in: f64| {
+        s.field.run(
+            t_in,
+            poa.beam_w_m2,
+            poa.diffuse_w_m2(),
+            poa.aoi_deg,
+            t_amb_c,
+        )
+    };
     match s.hx_effectiveness {
         None => {
             let o = run(t_store_c);

@@ -18,7 +18,7 @@ pub struct StoreStep {
 /// A store.
 #[derive(Debug, Clone)]
 pub enum Store {
-    Tank(Tank),
+    Tank(Box<Tank>),
     Pcm(Pcm),
 }
 
@@ -60,7 +60,13 @@ impl Store {
     /// A phase-change store has one heat exchanger: the streams take turns through it by
     /// operator splitting — each flows for `dt/n` at `n` times its flow, so each moves the
     /// same mass as over the whole step, and losses act over the whole step.
-    pub fn step(&mut self, dt_s: f64, streams: &[Stream], t_room_c: f64, cp_j_kgk: f64) -> StoreStep {
+    pub fn step(
+        &mut self,
+        dt_s: f64,
+        streams: &[Stream],
+        t_room_c: f64,
+        cp_j_kgk: f64,
+    ) -> StoreStep {
         let mut out = StoreStep::default();
         match self {
             Store::Tank(t) => {
@@ -77,7 +83,11 @@ impl Store {
                     out.delta_stored_j = r.delta_stored_j;
                 } else {
                     let n = n_active as f64;
-                    for (i, s) in streams.iter().enumerate().filter(|(_, s)| s.flow_kg_s > 0.0) {
+                    for (i, s) in streams
+                        .iter()
+                        .enumerate()
+                        .filter(|(_, s)| s.flow_kg_s > 0.0)
+                    {
                         let r = p.step(dt_s / n, s.flow_kg_s * n, s.t_in_c, cp_j_kgk, t_room_c);
                         out.q_in_j[i] = r.q_in_j;
                         out.q_loss_j += r.q_loss_j;
@@ -90,12 +100,21 @@ impl Store {
     }
 }
 
-/// A charging stream from the collector loop: enters at the top, leaves at the bottom.
+/// A charging stream from the collector loop: enters through a stratifier at the node that
+/// matches its temperature (so warm water never stirs a hotter top), leaves at the bottom.
 pub fn charge(flow_kg_s: f64, t_in_c: f64) -> Stream {
-    Stream { flow_kg_s, t_in_c, inlet: Inlet::Top }
+    Stream {
+        flow_kg_s,
+        t_in_c,
+        inlet: Inlet::StratifiedCharge,
+    }
 }
 
 /// A draw: the cooler return enters at the bottom and hot water leaves at the top.
 pub fn draw(flow_kg_s: f64, t_return_c: f64) -> Stream {
-    Stream { flow_kg_s, t_in_c: t_return_c, inlet: Inlet::Bottom }
+    Stream {
+        flow_kg_s,
+        t_in_c: t_return_c,
+        inlet: Inlet::Bottom,
+    }
 }

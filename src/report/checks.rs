@@ -9,7 +9,10 @@ fn g(x: f64) -> String {
     } else if x.abs() >= 1e5 || x.abs() < 1e-3 {
         format!("{x:.4e}")
     } else {
-        format!("{x:.6}").trim_end_matches('0').trim_end_matches('.').to_string()
+        format!("{x:.6}")
+            .trim_end_matches('0')
+            .trim_end_matches('.')
+            .to_string()
     }
 }
 
@@ -18,7 +21,18 @@ pub fn render(checks: &[Check]) -> String {
     let mut t = Table::new();
     t.load_preset(UTF8_FULL_CONDENSED)
         .set_content_arrangement(ContentArrangement::Dynamic)
-        .set_header(["group", "case", "value", "expected", "tolerance", "result", "source"].map(Cell::new));
+        .set_header(
+            [
+                "group",
+                "case",
+                "value",
+                "expected",
+                "tolerance",
+                "result",
+                "source",
+            ]
+            .map(Cell::new),
+        );
     for c in checks {
         t.add_row(vec![
             c.group.to_string(),
@@ -26,7 +40,11 @@ pub fn render(checks: &[Check]) -> String {
             g(c.value),
             g(c.expected),
             g(c.tolerance),
-            if c.passed() { "pass".into() } else { "FAIL".into() },
+            if c.passed() {
+                "pass".into()
+            } else {
+                "FAIL".into()
+            },
             c.source.clone(),
         ]);
     }

@@ -24,10 +24,19 @@ pub fn refuse_input(out: &Path, inputs: &[PathBuf]) -> Result<()> {
 /// Write `bytes` to `path` atomically: into a temporary file beside it, flushed, then renamed
 /// over the target, so a reader never sees a half-written file.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<()> {
-    let dir = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
-    let name = path.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_else(|| "out".into());
+    let dir = path
+        .parent()
+        .filter(|p| !p.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
+    let name = path
+        .file_name()
+        .map(|n| n.to_string_lossy().to_string())
+        .unwrap_or_else(|| "out".into());
     let tmp = dir.join(format!(".{name}.{}.partial", std::process::id()));
-    let wr = |e| Error::Write { path: path.to_path_buf(), source: e };
+    let wr = |e| Error::Write {
+        path: path.to_path_buf(),
+        source: e,
+    };
     let result = (|| {
         let mut f = std::fs::File::create(&tmp)?;
         f.write_all(bytes)?;
@@ -52,7 +61,10 @@ mod tests {
         let p = dir.join("a.csv");
         write_atomic(&p, b"x,y\n1,2\n").unwrap();
         assert_eq!(std::fs::read_to_string(&p).unwrap(), "x,y\n1,2\n");
-        let left: Vec<_> = std::fs::read_dir(&dir).unwrap().filter_map(|e| e.ok()).collect();
+        let left: Vec<_> = std::fs::read_dir(&dir)
+            .unwrap()
+            .filter_map(|e| e.ok())
+            .collect();
         assert_eq!(left.len(), 1);
         // A folder that does not exist: error, nothing written.
         assert!(write_atomic(&dir.join("no/such/dir.csv"), b"x").is_err());

@@ -100,7 +100,8 @@ pub fn render(ev: &Evaluation) -> Result<Vec<u8>> {
                 .map_err(err)?;
             }
         }
-        w.flush().map_err(|e| Error::Internal(format!("hourly CSV: {e}")))?;
+        w.flush()
+            .map_err(|e| Error::Internal(format!("hourly CSV: {e}")))?;
     }
     Ok(buf)
 }

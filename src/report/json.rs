@@ -59,12 +59,16 @@ pub fn render(ev: &Evaluation) -> Result<Vec<u8>> {
                     .monthly
                     .iter()
                     .enumerate()
-                    .map(|(i, t)| Month { month: i as u32 + 1, totals: t })
+                    .map(|(i, t)| Month {
+                        month: i as u32 + 1,
+                        totals: t,
+                    })
                     .collect(),
             })
             .collect(),
     };
-    let mut v = serde_json::to_vec_pretty(&doc).map_err(|e| Error::Internal(format!("JSON: {e}")))?;
+    let mut v =
+        serde_json::to_vec_pretty(&doc).map_err(|e| Error::Internal(format!("JSON: {e}")))?;
     v.push(b'\n');
     Ok(v)
 }

@@ -1,9 +1,9 @@
 //! Output: terminal tables, hourly CSV, JSON summary. Knows no physics: it formats what the
 //! feasibility layer computed.
 
+pub mod checks;
 pub mod files;
 pub mod hourly;
-pub mod checks;
 pub mod json;
 pub mod table;
 pub mod weather;

@@ -17,7 +17,7 @@ fn new_table(header: &[&str]) -> Table {
     let mut t = Table::new();
     t.load_preset(UTF8_FULL_CONDENSED)
         .set_content_arrangement(ContentArrangement::Dynamic)
-        .set_header(header.iter().map(|h| Cell::new(h)));
+        .set_header(header.iter().map(Cell::new));
     t
 }
 
@@ -76,7 +76,11 @@ pub fn feasibility(ev: &Evaluation) -> String {
         let a = &o.annual;
         heat.add_row(vec![
             o.option.clone(),
-            if o.gross_m2 > 0.0 { format!("{:.0}", o.gross_m2) } else { "–".into() },
+            if o.gross_m2 > 0.0 {
+                format!("{:.0}", o.gross_m2)
+            } else {
+                "–".into()
+            },
             o.store_m3.map_or("–".into(), |v| format!("{v:.1}")),
             mwh(a.solar_heat_kwh),
             ratio(a.collector_yield_kwh_m2, 0),
@@ -97,7 +101,12 @@ pub fn feasibility(ev: &Evaluation) -> String {
         ev.load_origin
     );
     if let Some(r) = ev.options.iter().find(|o| o.option == ev.reference) {
-        let mut diff = new_table(&["option", "electricity saved MWh", "boiler fuel saved MWh", "unmet change MWh"]);
+        let mut diff = new_table(&[
+            "option",
+            "electricity saved MWh",
+            "boiler fuel saved MWh",
+            "unmet change MWh",
+        ]);
         for o in &ev.options {
             diff.add_row(vec![
                 o.option.clone(),
@@ -107,13 +116,18 @@ pub fn feasibility(ev: &Evaluation) -> String {
             ]);
         }
         right(&mut diff, 1);
-        out.push_str(&format!("\nAgainst the reference option `{}`\n{diff}\n", ev.reference));
+        out.push_str(&format!(
+            "\nAgainst the reference option `{}`\n{diff}\n",
+            ev.reference
+        ));
     }
     out.push_str(&format!("\n{}\n", crate::SCREENING_CAUTION));
     out
 }
 
-const MONTHS: [&str; 12] = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+const MONTHS: [&str; 12] = [
+    "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
+];
 
 /// Monthly table of one option.
 pub fn monthly(option: &str, months: &[Totals]) -> String {

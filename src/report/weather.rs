@@ -38,7 +38,15 @@ pub struct WeatherSummary {
 /// Render as a terminal table.
 pub fn render(s: &WeatherSummary) -> String {
     let mut head: Vec<String> = [
-        "month", "GHI kWh/m²", "DNI kWh/m²", "DHI kWh/m²", "T mean °C", "T max °C", "W g/kg", "RH %", "wet-bulb °C",
+        "month",
+        "GHI kWh/m²",
+        "DNI kWh/m²",
+        "DHI kWh/m²",
+        "T mean °C",
+        "T max °C",
+        "W g/kg",
+        "RH %",
+        "wet-bulb °C",
     ]
     .iter()
     .map(|s| s.to_string())
@@ -67,7 +75,9 @@ pub fn render(s: &WeatherSummary) -> String {
         r.extend(m.poa_kwh_m2.iter().map(|v| format!("{v:.1}")));
         r
     };
-    const NAMES: [&str; 12] = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+    const NAMES: [&str; 12] = [
+        "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
+    ];
     for m in &s.months {
         t.add_row(row(NAMES[m.month as usize - 1].to_string(), m));
     }
@@ -87,8 +97,16 @@ pub fn render_csv(s: &WeatherSummary) -> Result<Vec<u8>> {
         let mut w = csv::Writer::from_writer(&mut buf);
         let err = |e: csv::Error| Error::Internal(format!("weather CSV: {e}"));
         let mut head: Vec<String> = [
-            "month", "ghi_kwh_m2", "dni_kwh_m2", "dhi_kwh_m2", "t_mean_c", "t_max_c", "w_mean_g_kg", "rh_mean_pct",
-            "t_wb_mean_c", "cooling_degree_hours_kh",
+            "month",
+            "ghi_kwh_m2",
+            "dni_kwh_m2",
+            "dhi_kwh_m2",
+            "t_mean_c",
+            "t_max_c",
+            "w_mean_g_kg",
+            "rh_mean_pct",
+            "t_wb_mean_c",
+            "cooling_degree_hours_kh",
         ]
         .iter()
         .map(|s| s.to_string())
@@ -111,7 +129,8 @@ pub fn render_csv(s: &WeatherSummary) -> Result<Vec<u8>> {
             r.extend(m.poa_kwh_m2.iter().map(|v| format!("{v:.3}")));
             w.write_record(&r).map_err(err)?;
         }
-        w.flush().map_err(|e| Error::Internal(format!("weather CSV: {e}")))?;
+        w.flush()
+            .map_err(|e| Error::Internal(format!("weather CSV: {e}")))?;
     }
     Ok(buf)
 }

@@ -61,7 +61,11 @@ impl Route for Electric {
             heat_rejected_kwh: h.heat_rejected_kwh,
             cop_thermal: None,
             cop_electric: (h.electricity_kwh > 0.0).then(|| h.cooling_kwh / h.electricity_kwh),
-            reason: if h.unmet_kwh > 1e-9 { Reason::CapacityLimit } else { Reason::Ok },
+            reason: if h.unmet_kwh > 1e-9 {
+                Reason::CapacityLimit
+            } else {
+                Reason::Ok
+            },
         }
     }
 }

@@ -77,7 +77,8 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
             Ok(w.min(ws))
         });
         let w = w.map_err(|e| weather_hour_error(&weather, i, e))?;
-        let t_wb = psychro::wet_bulb_c(h.t_db_c, w, p).map_err(|e| weather_hour_error(&weather, i, e))?;
+        let t_wb =
+            psychro::wet_bulb_c(h.t_db_c, w, p).map_err(|e| weather_hour_error(&weather, i, e))?;
         air.push((h.t_db_c, w, t_wb, p));
     }
 
@@ -86,14 +87,16 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
         .iter()
         .zip(&load.hours)
         .enumerate()
-        .map(|(hour, (&(t_db_c, w_kg_kg, t_wb_c, p_kpa), &load))| HourConditions {
-            hour,
-            t_db_c,
-            w_kg_kg,
-            t_wb_c,
-            p_kpa,
-            load,
-        })
+        .map(
+            |(hour, (&(t_db_c, w_kg_kg, t_wb_c, p_kpa), &load))| HourConditions {
+                hour,
+                t_db_c,
+                w_kg_kg,
+                t_wb_c,
+                p_kpa,
+                load,
+            },
+        )
         .collect();
     let heat_demand = heat_demand(s, &load, &file)?;
     Ok(Prepared {
@@ -122,7 +125,11 @@ fn load_weather(l: &Loaded, site: &Site) -> Result<WeatherYear> {
     let file = l.file();
     match s.weather.source {
         WeatherSource::Synthetic => {
-            let n = s.weather.synthetic.as_ref().ok_or_else(|| Error::Internal("checked: synthetic".into()))?;
+            let n = s
+                .weather
+                .synthetic
+                .as_ref()
+                .ok_or_else(|| Error::Internal("checked: synthetic".into()))?;
             crate::weather::synthetic::synthesize(
                 n,
                 site.latitude_deg,
@@ -133,7 +140,11 @@ fn load_weather(l: &Loaded, site: &Site) -> Result<WeatherYear> {
             .map_err(|e| e.within(&file, "weather.synthetic"))
         }
         WeatherSource::File => {
-            let f = s.weather.file.as_ref().ok_or_else(|| Error::Internal("checked: file".into()))?;
+            let f = s
+                .weather
+                .file
+                .as_ref()
+                .ok_or_else(|| Error::Internal("checked: file".into()))?;
             crate::weather::file::read(
                 f,
                 &l.base_dir,
@@ -148,7 +159,10 @@ fn load_weather(l: &Loaded, site: &Site) -> Result<WeatherYear> {
 
 /// Irradiance on the building's four vertical façades and the roof, by the Perez model.
 fn facade_irradiance(w: &WeatherYear, sun: &[SunPosition], albedo: f64) -> Vec<[f64; 5]> {
-    let planes = [0.0, 90.0, 180.0, 270.0].map(|az| Plane { tilt_deg: 90.0, azimuth_deg: az });
+    let planes = [0.0, 90.0, 180.0, 270.0].map(|az| Plane {
+        tilt_deg: 90.0,
+        azimuth_deg: az,
+    });
     w.hours
         .iter()
         .zip(sun)
@@ -156,8 +170,17 @@ fn facade_irradiance(w: &WeatherYear, sun: &[SunPosition], albedo: f64) -> Vec<[
             let mut out = [0.0; 5];
             for (k, p) in planes.iter().enumerate() {
                 let (plane, aoi) = track(crate::sun::incidence::Tracking::Fixed, *p, s);
-                out[k] = plane_irradiance(SkyModel::Perez1990, plane, aoi, s, h.ghi_w_m2, h.dni_w_m2, h.dhi_w_m2, albedo)
-                    .total_w_m2();
+                out[k] = plane_irradiance(
+                    SkyModel::Perez1990,
+                    plane,
+                    aoi,
+                    s,
+                    h.ghi_w_m2,
+                    h.dni_w_m2,
+                    h.dhi_w_m2,
+                    albedo,
+                )
+                .total_w_m2();
             }
             out[4] = h.ghi_w_m2;
             out
@@ -176,7 +199,11 @@ fn load_year(
     let file = l.file();
     match s.load.source {
         LoadSource::Model => {
-            let b = s.load.model.as_ref().ok_or_else(|| Error::Internal("checked: model".into()))?;
+            let b = s
+                .load
+                .model
+                .as_ref()
+                .ok_or_else(|| Error::Internal("checked: model".into()))?;
             let solar = facade_irradiance(w, sun, s.site.ground_albedo);
             let inputs: Vec<BuildingHourInput> = (0..w.hours.len())
                 .map(|i| {
@@ -195,7 +222,11 @@ fn load_year(
             crate::load::rc5::simulate(b, &inputs, w_in).map_err(|e| e.within(&file, "load.model"))
         }
         LoadSource::File => {
-            let f = s.load.file.as_ref().ok_or_else(|| Error::Internal("checked: load file".into()))?;
+            let f = s
+                .load
+                .file
+                .as_ref()
+                .ok_or_else(|| Error::Internal("checked: load file".into()))?;
             crate::load::file::read(f, &l.base_dir).map_err(|e| e.within(&file, "load.file"))
         }
     }
@@ -206,16 +237,26 @@ fn heat_demand(s: &Scenario, load: &LoadYear, file: &str) -> Result<Vec<HeatDema
     let Some(h) = &s.heat_demand else {
         return Ok(vec![HeatDemandHour::default(); n]);
     };
-    let profile: Vec<f64> = h.dhw_profile.clone().unwrap_or_else(|| DEFAULT_DHW_PROFILE.to_vec());
+    let profile: Vec<f64> = h
+        .dhw_profile
+        .clone()
+        .unwrap_or_else(|| DEFAULT_DHW_PROFILE.to_vec());
     let mut out = Vec::with_capacity(n);
     for (i, lh) in load.hours.iter().enumerate() {
         let (month, _, hour, _) = calendar(i);
-        let t_cold = h.cold_water_c.get(month as usize - 1).copied().unwrap_or(15.0);
+        let t_cold = h
+            .cold_water_c
+            .get(month as usize - 1)
+            .copied()
+            .unwrap_or(15.0);
         let dhw_kwh = if h.dhw_l_per_day > 0.0 {
             let t_mean = 0.5 * (t_cold + h.dhw_t_c);
-            let rho = water::liquid_density_kg_m3(t_mean, 300.0).map_err(|e| e.within(file, "heat_demand"))?;
-            let cp = water::liquid_cp_j_kgk(t_mean, 300.0).map_err(|e| e.within(file, "heat_demand"))?;
-            h.dhw_l_per_day / 1000.0 * profile[hour as usize] * rho * cp * (h.dhw_t_c - t_cold) / 3.6e6
+            let rho = water::liquid_density_kg_m3(t_mean, 300.0)
+                .map_err(|e| e.within(file, "heat_demand"))?;
+            let cp =
+                water::liquid_cp_j_kgk(t_mean, 300.0).map_err(|e| e.within(file, "heat_demand"))?;
+            h.dhw_l_per_day / 1000.0 * profile[hour as usize] * rho * cp * (h.dhw_t_c - t_cold)
+                / 3.6e6
         } else {
             0.0
         };
@@ -255,7 +296,8 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
         };
         let (solar, gross_m2, store_m3) = match (&o.field, &o.storage) {
             (Some(f), Some(st)) => {
-                let (loop_, gross, m3) = solar_loop(s, f, st, p).map_err(|e| e.within(&file, &prefix))?;
+                let (loop_, gross, m3) =
+                    solar_loop(s, f, st, p).map_err(|e| e.within(&file, &prefix))?;
                 (Some(loop_), gross, m3)
             }
             _ => (None, 0.0, None),
@@ -265,7 +307,10 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
                 name: name.clone(),
                 route,
                 solar,
-                boiler: Boiler { efficiency: o.backup.boiler_efficiency, capacity_kw: None },
+                boiler: Boiler {
+                    efficiency: o.backup.boiler_efficiency,
+                    capacity_kw: None,
+                },
                 serves_heat_demand: o.serves_heat_demand,
             },
             route: o.route.as_str(),
@@ -277,7 +322,12 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
     Ok(out)
 }
 
-fn solar_loop(s: &Scenario, f: &FieldSection, st: &StorageSection, p: &Prepared) -> Result<(SolarLoop, f64, Option<f64>)> {
+fn solar_loop(
+    s: &Scenario,
+    f: &FieldSection,
+    st: &StorageSection,
+    p: &Prepared,
+) -> Result<(SolarLoop, f64, Option<f64>)> {
     let collector = s
         .collectors
         .get(&f.collector)
@@ -301,7 +351,10 @@ fn solar_loop(s: &Scenario, f: &FieldSection, st: &StorageSection, p: &Prepared)
         rows: modules / f.in_series,
         flow_kg_s_m2: f.flow_kg_s_m2,
         cp_j_kgk: cp,
-        pipe: Pipe { length_m: f.pipe_length_m, ua_w_mk: f.pipe_loss_w_mk },
+        pipe: Pipe {
+            length_m: f.pipe_length_m,
+            ua_w_mk: f.pipe_loss_w_mk,
+        },
     };
     let (store, m3) = match st.kind {
         StorageKind::Tank => {
@@ -315,7 +368,10 @@ fn solar_loop(s: &Scenario, f: &FieldSection, st: &StorageSection, p: &Prepared)
                 rho_kg_m3: rho,
             };
             spec.validate().map_err(|e| e.within("", "storage"))?;
-            (Store::Tank(Tank::new(&spec)), Some(spec.volume_m3))
+            (
+                Store::Tank(Box::new(Tank::new(&spec))),
+                Some(spec.volume_m3),
+            )
         }
         StorageKind::Pcm => {
             let spec = PcmSpec {
@@ -333,7 +389,10 @@ fn solar_loop(s: &Scenario, f: &FieldSection, st: &StorageSection, p: &Prepared)
             (Store::Pcm(Pcm::new(&spec)), None)
         }
     };
-    let fixed = Plane { tilt_deg: f.tilt_deg, azimuth_deg: f.azimuth_deg };
+    let fixed = Plane {
+        tilt_deg: f.tilt_deg,
+        azimuth_deg: f.azimuth_deg,
+    };
     let poa = p
         .weather
         .hours
@@ -341,7 +400,16 @@ fn solar_loop(s: &Scenario, f: &FieldSection, st: &StorageSection, p: &Prepared)
         .zip(&p.sun)
         .map(|(h, sun)| {
             let (plane, aoi) = track(f.tracking, fixed, sun);
-            plane_irradiance(f.sky_model, plane, aoi, sun, h.ghi_w_m2, h.dni_w_m2, h.dhi_w_m2, s.site.ground_albedo)
+            plane_irradiance(
+                f.sky_model,
+                plane,
+                aoi,
+                sun,
+                h.ghi_w_m2,
+                h.dni_w_m2,
+                h.dhi_w_m2,
+                s.site.ground_albedo,
+            )
         })
         .collect();
     let gross = field.gross_m2();
@@ -389,7 +457,10 @@ pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Evaluation {
         reference: l.scenario.reference.clone(),
         options,
         weather_origin: match p.weather.derived_beam_diffuse {
-            Some(m) => format!("{} (beam and diffuse derived from GHI by {m})", p.weather.origin),
+            Some(m) => format!(
+                "{} (beam and diffuse derived from GHI by {m})",
+                p.weather.origin
+            ),
             None => p.weather.origin.clone(),
         },
         load_origin: p.load_origin.clone(),
@@ -405,15 +476,28 @@ pub fn evaluate(l: &Loaded) -> Result<Evaluation> {
 
 /// Monthly weather summary of a prepared scenario, with the irradiation on each option's
 /// collector plane.
-pub fn weather_summary(p: &Prepared, built: &[BuiltOption]) -> crate::report::weather::WeatherSummary {
+pub fn weather_summary(
+    p: &Prepared,
+    built: &[BuiltOption],
+) -> crate::report::weather::WeatherSummary {
     use crate::report::weather::{CDH_BASE_C, WeatherMonth, WeatherSummary};
     let planes: Vec<(String, &Vec<crate::sun::sky::PlaneIrradiance>)> = built
         .iter()
-        .filter_map(|b| b.plant.solar.as_ref().map(|s| (b.plant.name.clone(), &s.poa)))
+        .filter_map(|b| {
+            b.plant
+                .solar
+                .as_ref()
+                .map(|s| (b.plant.name.clone(), &s.poa))
+        })
         .collect();
     let summarize = |month: u32, hours: &[usize]| {
         let n = hours.len().max(1) as f64;
-        let mut m = WeatherMonth { month, poa_kwh_m2: vec![0.0; planes.len()], t_max_c: f64::MIN, ..Default::default() };
+        let mut m = WeatherMonth {
+            month,
+            poa_kwh_m2: vec![0.0; planes.len()],
+            t_max_c: f64::MIN,
+            ..Default::default()
+        };
         for &i in hours {
             let h = &p.weather.hours[i];
             let c = &p.conditions[i];
@@ -426,7 +510,8 @@ pub fn weather_summary(p: &Prepared, built: &[BuiltOption]) -> crate::report::we
             m.t_mean_c += c.t_db_c / n;
             m.t_max_c = m.t_max_c.max(c.t_db_c);
             m.w_mean_g_kg += 1000.0 * c.w_kg_kg / n;
-            m.rh_mean_pct += psychro::rh_from_ratio(c.t_db_c, c.w_kg_kg, c.p_kpa).unwrap_or(0.0) / n;
+            m.rh_mean_pct +=
+                psychro::rh_from_ratio(c.t_db_c, c.w_kg_kg, c.p_kpa).unwrap_or(0.0) / n;
             m.t_wb_mean_c += c.t_wb_c / n;
             m.cooling_degree_hours_kh += (c.t_db_c - CDH_BASE_C).max(0.0);
         }
@@ -443,7 +528,11 @@ pub fn weather_summary(p: &Prepared, built: &[BuiltOption]) -> crate::report::we
             None => p.weather.origin.clone(),
         },
         planes: planes.iter().map(|(n, _)| n.clone()).collect(),
-        months: by_month.iter().enumerate().map(|(k, h)| summarize(k as u32 + 1, h)).collect(),
+        months: by_month
+            .iter()
+            .enumerate()
+            .map(|(k, h)| summarize(k as u32 + 1, h))
+            .collect(),
         year: summarize(0, &all),
     }
 }

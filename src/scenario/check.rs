@@ -44,13 +44,55 @@ pub fn check(s: &Scenario, file: &str) -> Result<()> {
 }
 
 fn site(s: &SiteSection) -> Result<()> {
-    in_range("latitude_deg", s.latitude_deg, -90.0, 90.0, "degrees, north positive")?;
-    in_range("longitude_deg", s.longitude_deg, -180.0, 180.0, "degrees, east positive")?;
-    in_range("elevation_m", s.elevation_m, -400.0, 5000.0, "metres above sea level")?;
-    in_range("utc_offset_h", s.utc_offset_h, -12.0, 14.0, "hours of standard time ahead of UTC")?;
-    in_range("ground_albedo", s.ground_albedo, 0.0, 1.0, "ground reflectance, fraction")?;
-    in_range("year", s.year as f64, 1950.0, 2100.0, "calendar year for the sun's position")?;
-    count("jan1_weekday", s.jan1_weekday, 0, 6, "0 = Monday .. 6 = Sunday")?;
+    in_range(
+        "latitude_deg",
+        s.latitude_deg,
+        -90.0,
+        90.0,
+        "degrees, north positive",
+    )?;
+    in_range(
+        "longitude_deg",
+        s.longitude_deg,
+        -180.0,
+        180.0,
+        "degrees, east positive",
+    )?;
+    in_range(
+        "elevation_m",
+        s.elevation_m,
+        -400.0,
+        5000.0,
+        "metres above sea level",
+    )?;
+    in_range(
+        "utc_offset_h",
+        s.utc_offset_h,
+        -12.0,
+        14.0,
+        "hours of standard time ahead of UTC",
+    )?;
+    in_range(
+        "ground_albedo",
+        s.ground_albedo,
+        0.0,
+        1.0,
+        "ground reflectance, fraction",
+    )?;
+    in_range(
+        "year",
+        s.year as f64,
+        1950.0,
+        2100.0,
+        "calendar year for the sun's position",
+    )?;
+    count(
+        "jan1_weekday",
+        s.jan1_weekday,
+        0,
+        6,
+        "0 = Monday .. 6 = Sunday",
+    )?;
     // The standard-time meridian should be near the longitude; a wrong sign is the classic slip.
     let meridian = 15.0 * s.utc_offset_h;
     if (s.longitude_deg - meridian).abs() > 45.0 {
@@ -109,10 +151,29 @@ fn load(s: &LoadSection) -> Result<()> {
 }
 
 fn heat_demand(h: &HeatDemandSection, load: LoadSource) -> Result<()> {
-    in_range("dhw_l_per_day", h.dhw_l_per_day, 0.0, 1.0e6, "litres of hot water per day")?;
-    in_range("dhw_t_c", h.dhw_t_c, 30.0, 80.0, "hot-water delivery temperature, °C")?;
+    in_range(
+        "dhw_l_per_day",
+        h.dhw_l_per_day,
+        0.0,
+        1.0e6,
+        "litres of hot water per day",
+    )?;
+    in_range(
+        "dhw_t_c",
+        h.dhw_t_c,
+        30.0,
+        80.0,
+        "hot-water delivery temperature, °C",
+    )?;
     if h.dhw_l_per_day > 0.0 {
-        list("cold_water_c", &h.cold_water_c, 12, 0.0, 35.0, "monthly mains water temperature, °C")?;
+        list(
+            "cold_water_c",
+            &h.cold_water_c,
+            12,
+            0.0,
+            35.0,
+            "monthly mains water temperature, °C",
+        )?;
         for (i, t) in h.cold_water_c.iter().enumerate() {
             if *t >= h.dhw_t_c {
                 return Err(Error::input(
@@ -124,7 +185,14 @@ fn heat_demand(h: &HeatDemandSection, load: LoadSource) -> Result<()> {
         }
     }
     if let Some(p) = &h.dhw_profile {
-        list("dhw_profile", p, 24, 0.0, 1.0, "fraction of the daily draw in each hour")?;
+        list(
+            "dhw_profile",
+            p,
+            24,
+            0.0,
+            1.0,
+            "fraction of the daily draw in each hour",
+        )?;
         let sum: f64 = p.iter().sum();
         if (sum - 1.0).abs() > 1e-3 {
             return Err(Error::input(
@@ -142,14 +210,32 @@ fn heat_demand(h: &HeatDemandSection, load: LoadSource) -> Result<()> {
                 "space heating comes from the building model: needs [load] source = \"model\"",
             ));
         }
-        in_range("sh_supply_c", h.sh_supply_c, 25.0, 90.0, "heating-loop supply, °C")?;
-        in_range("sh_return_c", h.sh_return_c, 15.0, h.sh_supply_c - 1.0, "heating-loop return, °C, below the supply")?;
+        in_range(
+            "sh_supply_c",
+            h.sh_supply_c,
+            25.0,
+            90.0,
+            "heating-loop supply, °C",
+        )?;
+        in_range(
+            "sh_return_c",
+            h.sh_return_c,
+            15.0,
+            h.sh_supply_c - 1.0,
+            "heating-loop return, °C, below the supply",
+        )?;
     }
     Ok(())
 }
 
 fn option(s: &Scenario, o: &OptionSection) -> Result<()> {
-    open_range("backup.boiler_efficiency", o.backup.boiler_efficiency, 0.0, 1.1, "heat out per fuel in (HHV)")?;
+    open_range(
+        "backup.boiler_efficiency",
+        o.backup.boiler_efficiency,
+        0.0,
+        1.1,
+        "heat out per fuel in (HHV)",
+    )?;
     match (&o.field, &o.storage) {
         (Some(f), Some(st)) => {
             field(s, f).map_err(|e| e.within("", "field"))?;
@@ -199,7 +285,11 @@ fn field(s: &Scenario, f: &FieldSection) -> Result<()> {
             format!("\"{}\"", f.collector),
             format!(
                 "{hint}must name a [collectors.NAME] section; defined: {}",
-                if names.is_empty() { "(none)".into() } else { names.join(", ") }
+                if names.is_empty() {
+                    "(none)".into()
+                } else {
+                    names.join(", ")
+                }
             ),
         ));
     };
@@ -215,42 +305,138 @@ fn field(s: &Scenario, f: &FieldSection) -> Result<()> {
         }
     }
     count("in_series", f.in_series, 1, 50, "modules in series per row")?;
-    if let Some(m) = f.modules {
-        if m % f.in_series != 0 {
-            return Err(Error::input(
-                "modules",
-                m,
-                format!("must be a whole number of rows of in_series = {} modules", f.in_series),
-            ));
-        }
+    if let Some(m) = f.modules
+        && m % f.in_series != 0
+    {
+        return Err(Error::input(
+            "modules",
+            m,
+            format!(
+                "must be a whole number of rows of in_series = {} modules",
+                f.in_series
+            ),
+        ));
     }
-    in_range("tilt_deg", f.tilt_deg, 0.0, 90.0, "collector tilt from horizontal, degrees")?;
-    in_range("azimuth_deg", f.azimuth_deg, 0.0, 360.0, "degrees clockwise from north, 180 = south")?;
-    positive("flow_kg_s_m2", f.flow_kg_s_m2, 0.2, "collector-loop flow per m² of collector, kg/(s·m²)")?;
-    in_range("pipe_length_m", f.pipe_length_m, 0.0, 5000.0, "supply + return pipe length, m")?;
-    in_range("pipe_loss_w_mk", f.pipe_loss_w_mk, 0.0, 5.0, "pipe heat loss per metre and kelvin, W/(m·K)")?;
+    in_range(
+        "tilt_deg",
+        f.tilt_deg,
+        0.0,
+        90.0,
+        "collector tilt from horizontal, degrees",
+    )?;
+    in_range(
+        "azimuth_deg",
+        f.azimuth_deg,
+        0.0,
+        360.0,
+        "degrees clockwise from north, 180 = south",
+    )?;
+    positive(
+        "flow_kg_s_m2",
+        f.flow_kg_s_m2,
+        0.2,
+        "collector-loop flow per m² of collector, kg/(s·m²)",
+    )?;
+    in_range(
+        "pipe_length_m",
+        f.pipe_length_m,
+        0.0,
+        5000.0,
+        "supply + return pipe length, m",
+    )?;
+    in_range(
+        "pipe_loss_w_mk",
+        f.pipe_loss_w_mk,
+        0.0,
+        5.0,
+        "pipe heat loss per metre and kelvin, W/(m·K)",
+    )?;
     if let Some(e) = f.hx_effectiveness {
-        open_range("hx_effectiveness", e, 0.0, 1.0, "collector-loop heat-exchanger effectiveness")?;
+        open_range(
+            "hx_effectiveness",
+            e,
+            0.0,
+            1.0,
+            "collector-loop heat-exchanger effectiveness",
+        )?;
     }
-    in_range("pump_w_m2", f.pump_w_m2, 0.0, 50.0, "pump electric power per m² of collector, W/m²")?;
-    in_range("dt_on_k", f.dt_on_k, 0.5, 30.0, "pump start temperature difference, K")?;
-    in_range("dt_off_k", f.dt_off_k, 0.0, f.dt_on_k, "pump stop temperature difference, K, below dt_on_k")?;
+    in_range(
+        "pump_w_m2",
+        f.pump_w_m2,
+        0.0,
+        50.0,
+        "pump electric power per m² of collector, W/m²",
+    )?;
+    in_range(
+        "dt_on_k",
+        f.dt_on_k,
+        0.5,
+        30.0,
+        "pump start temperature difference, K",
+    )?;
+    in_range(
+        "dt_off_k",
+        f.dt_off_k,
+        0.0,
+        f.dt_on_k,
+        "pump stop temperature difference, K, below dt_on_k",
+    )?;
     let _ = c;
     Ok(())
 }
 
 fn storage(st: &StorageSection) -> Result<()> {
-    in_range("ua_w_k", st.ua_w_k, 0.0, 1.0e5, "store loss coefficient to the plant room, W/K")?;
-    in_range("t_room_c", st.t_room_c, -30.0, 50.0, "plant-room temperature, °C")?;
-    in_range("t_max_c", st.t_max_c, 40.0, 200.0, "maximum store temperature, °C")?;
-    in_range("t_init_c", st.t_init_c, 0.0, st.t_max_c, "store temperature at the start, °C")?;
+    in_range(
+        "ua_w_k",
+        st.ua_w_k,
+        0.0,
+        1.0e5,
+        "store loss coefficient to the plant room, W/K",
+    )?;
+    in_range(
+        "t_room_c",
+        st.t_room_c,
+        -30.0,
+        50.0,
+        "plant-room temperature, °C",
+    )?;
+    in_range(
+        "t_max_c",
+        st.t_max_c,
+        40.0,
+        200.0,
+        "maximum store temperature, °C",
+    )?;
+    in_range(
+        "t_init_c",
+        st.t_init_c,
+        0.0,
+        st.t_max_c,
+        "store temperature at the start, °C",
+    )?;
     let need = |k: &str, v: Option<f64>| {
-        v.ok_or_else(|| Error::input(k, "(missing)", format!("required for kind = \"{}\"", kind_name(st.kind))))
+        v.ok_or_else(|| {
+            Error::input(
+                k,
+                "(missing)",
+                format!("required for kind = \"{}\"", kind_name(st.kind)),
+            )
+        })
     };
     match st.kind {
         StorageKind::Tank => {
-            positive("volume_m3", need("volume_m3", st.volume_m3)?, 10_000.0, "tank volume, m³")?;
-            positive("height_m", need("height_m", st.height_m)?, 50.0, "tank height, m")?;
+            positive(
+                "volume_m3",
+                need("volume_m3", st.volume_m3)?,
+                10_000.0,
+                "tank volume, m³",
+            )?;
+            positive(
+                "height_m",
+                need("height_m", st.height_m)?,
+                50.0,
+                "tank height, m",
+            )?;
             count("nodes", st.nodes, 1, 50, "stratification nodes")?;
             if st.t_max_c > 99.0 {
                 return Err(Error::input(
@@ -261,13 +447,50 @@ fn storage(st: &StorageSection) -> Result<()> {
             }
         }
         StorageKind::Pcm => {
-            positive("mass_kg", need("mass_kg", st.mass_kg)?, 1.0e7, "PCM mass, kg")?;
-            positive("cp_solid_j_kgk", need("cp_solid_j_kgk", st.cp_solid_j_kgk)?, 10_000.0, "solid specific heat, J/(kg·K)")?;
-            positive("cp_liquid_j_kgk", need("cp_liquid_j_kgk", st.cp_liquid_j_kgk)?, 10_000.0, "liquid specific heat, J/(kg·K)")?;
-            positive("latent_j_kg", need("latent_j_kg", st.latent_j_kg)?, 1.0e6, "latent heat of melting, J/kg")?;
-            in_range("t_melt_c", need("t_melt_c", st.t_melt_c)?, 0.0, 200.0, "melting temperature, °C")?;
-            in_range("melt_range_k", st.melt_range_k, 0.0, 20.0, "melting range, K")?;
-            positive("ua_hx_w_k", need("ua_hx_w_k", st.ua_hx_w_k)?, 1.0e6, "fluid-to-PCM exchanger UA, W/K")?;
+            positive(
+                "mass_kg",
+                need("mass_kg", st.mass_kg)?,
+                1.0e7,
+                "PCM mass, kg",
+            )?;
+            positive(
+                "cp_solid_j_kgk",
+                need("cp_solid_j_kgk", st.cp_solid_j_kgk)?,
+                10_000.0,
+                "solid specific heat, J/(kg·K)",
+            )?;
+            positive(
+                "cp_liquid_j_kgk",
+                need("cp_liquid_j_kgk", st.cp_liquid_j_kgk)?,
+                10_000.0,
+                "liquid specific heat, J/(kg·K)",
+            )?;
+            positive(
+                "latent_j_kg",
+                need("latent_j_kg", st.latent_j_kg)?,
+                1.0e6,
+                "latent heat of melting, J/kg",
+            )?;
+            in_range(
+                "t_melt_c",
+                need("t_melt_c", st.t_melt_c)?,
+                0.0,
+                200.0,
+                "melting temperature, °C",
+            )?;
+            in_range(
+                "melt_range_k",
+                st.melt_range_k,
+                0.0,
+                20.0,
+                "melting range, K",
+            )?;
+            positive(
+                "ua_hx_w_k",
+                need("ua_hx_w_k", st.ua_hx_w_k)?,
+                1.0e6,
+                "fluid-to-PCM exchanger UA, W/K",
+            )?;
         }
     }
     Ok(())

@@ -43,34 +43,59 @@ fn schema_error(file: &str, text: &str, path: &str, e: &toml::de::Error) -> Erro
         Some(l) => format!("{key} (line {l})"),
         None => key,
     };
-    let path = if path == "." { String::new() } else { path.to_string() };
+    let path = if path == "." {
+        String::new()
+    } else {
+        path.to_string()
+    };
     // serde: "unknown field `x`, expected one of `a`, `b`" / "expected `a` or `b`" /
     // "unknown variant `x`, expected ..."
     for what in ["unknown field", "unknown variant"] {
         if let Some(rest) = msg.strip_prefix(what) {
             let found = between_ticks(rest).into_iter().next().unwrap_or_default();
-            let allowed = rest.split_once("expected").map_or(Vec::new(), |(_, e)| between_ticks(e));
+            let allowed = rest
+                .split_once("expected")
+                .map_or(Vec::new(), |(_, e)| between_ticks(e));
             let hint = nearest(&found, &allowed)
                 .map_or(String::new(), |n| format!("did you mean `{n}`? "));
+            // serde_path_to_error already ends the path with the unknown key.
             let key = if what == "unknown field" {
-                if path.is_empty() { found.clone() } else { format!("{path}.{found}") }
+                if path.is_empty() {
+                    found.clone()
+                } else if path == found || path.ends_with(&format!(".{found}")) {
+                    path.clone()
+                } else {
+                    format!("{path}.{found}")
+                }
             } else {
                 path.clone()
             };
             return Error::Input {
                 file: file.to_string(),
                 key: at(key),
-                value: if what == "unknown field" { "(unknown key)".into() } else { format!("\"{found}\"") },
+                value: if what == "unknown field" {
+                    "(unknown key)".into()
+                } else {
+                    format!("\"{found}\"")
+                },
                 allowed: format!(
                     "{hint}allowed here: {}",
-                    allowed.iter().map(|a| format!("`{a}`")).collect::<Vec<_>>().join(", ")
+                    allowed
+                        .iter()
+                        .map(|a| format!("`{a}`"))
+                        .collect::<Vec<_>>()
+                        .join(", ")
                 ),
             };
         }
     }
     if let Some(rest) = msg.strip_prefix("missing field") {
         let field = between_ticks(rest).into_iter().next().unwrap_or_default();
-        let key = if path.is_empty() { field.clone() } else { format!("{path}.{field}") };
+        let key = if path.is_empty() {
+            field.clone()
+        } else {
+            format!("{path}.{field}")
+        };
         return Error::Input {
             file: file.to_string(),
             key: at(key),
@@ -80,14 +105,22 @@ fn schema_error(file: &str, text: &str, path: &str, e: &toml::de::Error) -> Erro
     }
     Error::Input {
         file: file.to_string(),
-        key: at(if path.is_empty() { "(top level)".into() } else { path }),
+        key: at(if path.is_empty() {
+            "(top level)".into()
+        } else {
+            path
+        }),
         value: "(wrong type or value)".into(),
         allowed: msg,
     }
 }
 
 fn between_ticks(s: &str) -> Vec<String> {
-    s.split('`').skip(1).step_by(2).map(str::to_string).collect()
+    s.split('`')
+        .skip(1)
+        .step_by(2)
+        .map(str::to_string)
+        .collect()
 }
 
 /// The allowed name nearest to `found` (Levenshtein distance ≤ 3, or a common prefix),
@@ -96,7 +129,9 @@ pub fn nearest(found: &str, allowed: &[String]) -> Option<String> {
     allowed
         .iter()
         .map(|a| (strsim::levenshtein(found, a), a))
-        .filter(|(d, a)| *d <= 3.max(found.len() / 3) || a.starts_with(found) || found.starts_with(a.as_str()))
+        .filter(|(d, a)| {
+            *d <= 3.max(found.len() / 3) || a.starts_with(found) || found.starts_with(a.as_str())
+        })
         .min_by_key(|(d, _)| *d)
         .map(|(_, a)| a.clone())
 }
@@ -121,7 +156,8 @@ mod tests {
 
     #[test]
     fn unknown_key_suggests_nearest() {
-        let e = from_toml::<Top>("s.toml", "[site]\nlatitud_deg = 3\nlongitude_deg = 2\n").unwrap_err();
+        let e =
+            from_toml::<Top>("s.toml", "[site]\nlatitud_deg = 3\nlongitude_deg = 2\n").unwrap_err();
         let m = e.to_string();
         assert!(m.contains("s.toml: site.latitud_deg (line 2)"), "{m}");
         assert!(m.contains("did you mean `latitude_deg`"), "{m}");
@@ -129,17 +165,27 @@ mod tests {
 
     #[test]
     fn missing_section_is_named() {
-        let e = from_toml::<Top>("s.toml", "x = 1\n").unwrap_err().to_string();
+        let e = from_toml::<Top>("s.toml", "x = 1\n")
+            .unwrap_err()
+            .to_string();
         assert!(e.contains("unknown key") || e.contains("site"), "{e}");
-        let e = from_toml::<Top>("s.toml", "[other]\n").unwrap_err().to_string();
+        let e = from_toml::<Top>("s.toml", "[other]\n")
+            .unwrap_err()
+            .to_string();
         assert!(e.contains("s.toml"), "{e}");
     }
 
     #[test]
     fn wrong_type_names_key_and_line() {
-        let e = from_toml::<Top>("s.toml", "[site]\nlatitude_deg = \"north\"\nlongitude_deg = 2\n")
-            .unwrap_err()
-            .to_string();
-        assert!(e.contains("site.latitude_deg") && e.contains("line 2"), "{e}");
+        let e = from_toml::<Top>(
+            "s.toml",
+            "[site]\nlatitude_deg = \"north\"\nlongitude_deg = 2\n",
+        )
+        .unwrap_err()
+        .to_string();
+        assert!(
+            e.contains("site.latitude_deg") && e.contains("line 2"),
+            "{e}"
+        );
     }
 }

@@ -87,11 +87,7 @@ pub fn sunset_hour_angle_deg(latitude_deg: f64, declination_deg: f64) -> f64 {
 pub fn daily_extraterrestrial_j_m2(n: u32, latitude_deg: f64) -> f64 {
     let d = declination_cooper_deg(n);
     let ws = sunset_hour_angle_deg(latitude_deg, d);
-    let (p, dr, wr) = (
-        latitude_deg.to_radians(),
-        d.to_radians(),
-        ws.to_radians(),
-    );
+    let (p, dr, wr) = (latitude_deg.to_radians(), d.to_radians(), ws.to_radians());
     let g_on = SOLAR_CONSTANT_W_M2 * (1.0 + 0.033 * (360.0 * n as f64 / 365.0).to_radians().cos());
     24.0 * 3600.0 / std::f64::consts::PI
         * g_on

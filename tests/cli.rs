@@ -1,0 +1,400 @@
+//! The command line as a user meets it: the README's commands, the output files, and one test
+//! per class of bad input (each must give one clear message and exit status 2).
+
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+
+fn bin() -> Command {
+    Command::new(env!("CARGO_BIN_EXE_parhelion"))
+}
+
+fn demo_path(name: &str) -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("scenarios")
+        .join(format!("{name}.toml"))
+}
+
+fn demo_text() -> String {
+    std::fs::read_to_string(demo_path("port-meridian-clinic")).unwrap()
+}
+
+/// A fresh temporary folder for one test.
+fn tmp(tag: &str) -> PathBuf {
+    let d = std::env::temp_dir().join(format!("parhelion-cli-{tag}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&d);
+    std::fs::create_dir_all(&d).unwrap();
+    d
+}
+
+fn run(args: &[&str]) -> Output {
+    bin().args(args).output().unwrap()
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stderr).to_string()
+}
+
+/// Write `text` as a scenario in a temp folder and evaluate it; returns (status, stderr).
+fn evaluate_text(tag: &str, text: &str) -> (i32, String) {
+    let d = tmp(tag);
+    let p = d.join("s.toml");
+    std::fs::write(&p, text).unwrap();
+    let o = run(&["evaluate", p.to_str().unwrap(), "--quiet"]);
+    let r = (o.status.code().unwrap_or(-1), stderr(&o));
+    let _ = std::fs::remove_dir_all(&d);
+    r
+}
+
+fn assert_bad(tag: &str, text: &str, needles: &[&str]) {
+    let (code, err) = evaluate_text(tag, text);
+    assert_eq!(code, 2, "{tag}: exit status (stderr: {err})");
+    for n in needles {
+        assert!(err.contains(n), "{tag}: message lacks `{n}`: {err}");
+    }
+    assert_eq!(
+        err.trim().lines().count(),
+        1,
+        "{tag}: one clear message: {err}"
+    );
+}
+
+#[test]
+fn evaluate_demo_prints_table_and_writes_files() {
+    let d = tmp("files");
+    let hourly = d.join("hourly.csv");
+    let json = d.join("summary.json");
+    let o = run(&[
+        "evaluate",
+        demo_path("port-meridian-clinic").to_str().unwrap(),
+        "--hourly",
+        hourly.to_str().unwrap(),
+        "--json",
+        json.to_str().unwrap(),
+        "--monthly",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let out = String::from_utf8_lossy(&o.stdout);
+    for s in [
+        "grid-chiller",
+        "grid-chiller-solar-dhw",
+        "solar fraction %",
+        "Screening estimate only",
+        "Monthly:",
+    ] {
+        assert!(out.contains(s), "table lacks {s}");
+    }
+    let csv = std::fs::read_to_string(&hourly).unwrap();
+    let mut lines = csv.lines();
+    assert!(lines.next().unwrap().starts_with("# parhelion"));
+    let header = lines.next().unwrap();
+    assert!(header.starts_with(
+        "option,route,hour_of_year,month,day,hour,t_amb_c,ghi_w_m2,poa_w_m2,load_kwh,cooling_kwh"
+    ));
+    assert_eq!(lines.count(), 2 * 8760, "one row per hour and option");
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&json).unwrap()).unwrap();
+    assert_eq!(v["scenario"], "Port Meridian clinic (demo)");
+    let opts = v["options"].as_array().unwrap();
+    assert_eq!(opts.len(), 2);
+    for key in [
+        "cooling_kwh",
+        "solar_fraction",
+        "electricity_kwh",
+        "backup_heat_kwh",
+        "stagnation_hours",
+    ] {
+        assert!(opts[1]["annual"].get(key).is_some(), "annual.{key}");
+    }
+    assert_eq!(opts[1]["monthly"].as_array().unwrap().len(), 12);
+    // No partial files left beside the outputs.
+    let names: Vec<String> = std::fs::read_dir(&d)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().to_string())
+        .collect();
+    assert_eq!(names.len(), 2, "{names:?}");
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+#[test]
+fn json_to_stdout() {
+    let o = run(&[
+        "evaluate",
+        demo_path("qasr-alvar-office").to_str().unwrap(),
+        "--json",
+        "-",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert_eq!(v["options"].as_array().unwrap().len(), 3);
+}
+
+#[test]
+fn init_writes_a_runnable_starter_and_never_overwrites() {
+    let d = tmp("init");
+    let p = d.join("new.toml");
+    let o = run(&["init", p.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let first = std::fs::read_to_string(&p).unwrap();
+    assert!(
+        first.contains("# -90..90"),
+        "keys carry their range in comments"
+    );
+    let o = run(&["evaluate", p.to_str().unwrap(), "--quiet"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    std::fs::write(&p, "mine").unwrap();
+    let o = run(&["init", p.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("never overwrites"));
+    assert_eq!(std::fs::read_to_string(&p).unwrap(), "mine");
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+#[test]
+fn output_over_an_input_is_refused() {
+    let d = tmp("over");
+    let p = d.join("s.toml");
+    std::fs::write(&p, demo_text()).unwrap();
+    let o = run(&[
+        "evaluate",
+        p.to_str().unwrap(),
+        "--hourly",
+        p.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert_eq!(std::fs::read_to_string(&p).unwrap(), demo_text());
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+#[test]
+fn weather_verb_summarises_months_and_planes() {
+    let d = tmp("weather");
+    let c = d.join("w.csv");
+    let o = run(&[
+        "weather",
+        demo_path("port-meridian-clinic").to_str().unwrap(),
+        "--csv",
+        c.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let out = String::from_utf8_lossy(&o.stdout);
+    for s in [
+        "GHI kWh/m²",
+        "Jan",
+        "Dec",
+        "year",
+        "grid-chiller-solar-dhw plane kWh/m²",
+        "CDH18",
+    ] {
+        assert!(out.contains(s), "weather output lacks {s}: {out}");
+    }
+    assert_eq!(std::fs::read_to_string(&c).unwrap().lines().count(), 14);
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+#[test]
+fn checks_verb_passes() {
+    let o = run(&["checks"]);
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&o.stdout)
+    );
+    let o = run(&["checks", "--json"]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    let rows = v.as_array().unwrap();
+    assert!(rows.len() > 100);
+    assert!(
+        rows.iter()
+            .all(|r| !r["source"].as_str().unwrap().is_empty()),
+        "every row names its source"
+    );
+}
+
+// ---- bad input: one test per class ----
+
+#[test]
+fn unknown_key_suggests() {
+    let t = demo_text().replace("latitude_deg = 11.7", "latitud_deg = 11.7");
+    assert_bad(
+        "unknown",
+        &t,
+        &["site.latitud_deg", "did you mean `latitude_deg`"],
+    );
+}
+
+#[test]
+fn missing_section() {
+    let t = demo_text().replace("[baseline]", "[baseline_chiller]");
+    let (code, err) = evaluate_text("missing", &t);
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("baseline"), "{err}");
+}
+
+#[test]
+fn absurd_latitude() {
+    let t = demo_text().replace("latitude_deg = 11.7", "latitude_deg = 120.0");
+    assert_bad(
+        "lat",
+        &t,
+        &["site.latitude_deg = 120", "between -90 and 90"],
+    );
+}
+
+#[test]
+fn negative_area() {
+    let t = demo_text().replace("modules = 24 ", "gross_area_m2 = -5.0 ");
+    assert_bad(
+        "area",
+        &t,
+        &[
+            "options.grid-chiller-solar-dhw.field.gross_area_m2 = -5",
+            "> 0",
+        ],
+    );
+}
+
+#[test]
+fn humidity_above_100_pct() {
+    let t = demo_text().replace(
+        "t_dew_c = [20.0, 20.8, 22.0, 23.4, 24.0, 24.0, 23.6, 23.6, 23.4, 23.0, 22.0, 20.6]",
+        "rh_pct = [70, 70, 70, 140, 70, 70, 70, 70, 70, 70, 70, 70]",
+    );
+    assert_bad("rh", &t, &["weather.synthetic.rh_pct[3] = 140"]);
+}
+
+#[test]
+fn wrong_unit() {
+    let t = demo_text().replace("kind = \"tank\" ", "kind = \"barrel\" ");
+    assert_bad("unit", &t, &["storage.kind", "\"barrel\"", "`tank`"]);
+}
+
+#[test]
+fn wrong_type_names_line() {
+    let t = demo_text().replace("elevation_m = 5.0", "elevation_m = \"sea level\"");
+    assert_bad("type", &t, &["site.elevation_m", "line"]);
+}
+
+#[test]
+fn reference_must_be_an_option() {
+    let t = demo_text().replace(
+        "reference = \"grid-chiller\"",
+        "reference = \"grid-chiler\"",
+    );
+    assert_bad("ref", &t, &["reference", "did you mean `grid-chiller`"]);
+}
+
+#[test]
+fn unknown_collector_name() {
+    let t = demo_text().replace("collector = \"flat-plate\"", "collector = \"flat-plates\"");
+    assert_bad(
+        "coll",
+        &t,
+        &["field.collector", "did you mean `flat-plate`"],
+    );
+}
+
+#[test]
+fn empty_scenario_file() {
+    assert_bad("empty", "", &["empty"]);
+}
+
+#[test]
+fn not_toml() {
+    assert_bad(
+        "syntax",
+        "[site\nlatitude_deg = 1\n",
+        &["line 1", "not valid TOML"],
+    );
+}
+
+#[test]
+fn missing_scenario_file() {
+    let o = run(&["evaluate", "/nonexistent/parhelion.toml"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("cannot read"));
+}
+
+/// A weather file with `rows` data rows, written beside the scenario, and the scenario text
+/// pointing at it.
+fn file_weather_scenario(d: &Path, body: &str) -> PathBuf {
+    std::fs::write(d.join("w.csv"), body).unwrap();
+    let t = demo_text().replace("source = \"synthetic\"       #", "source = \"file\"  #");
+    let t = t.replace(
+        "[weather.synthetic]",
+        "[weather.file]\npath = \"w.csv\"\ninterval = \"ending\"\ncolumns = { ghi = \"GHI\", t_db = \"T\", rh = \"RH\" }\nunits = { ghi = \"W/m2\", t_db = \"C\", rh = \"%\" }\n\n[unused.synthetic]",
+    );
+    // Drop the now-orphaned synthetic table: keep only keys TOML would reject under [unused].
+    let t = t.replace("[unused.synthetic]", "[weather.unused_normals_removed]");
+    let start = t.find("[weather.unused_normals_removed]").unwrap();
+    let end = t[start..].find("[load]").unwrap() + start;
+    let t = format!("{}{}", &t[..start], &t[end..]);
+    let p = d.join("s.toml");
+    std::fs::write(&p, t).unwrap();
+    p
+}
+
+fn weather_rows(n: usize) -> String {
+    let mut s = String::from("GHI,T,RH\n");
+    for i in 0..n {
+        let h = i % 24;
+        // A plausible clear-ish day shape: zero at 06:00 and 18:00, 800 W/m² at noon.
+        let x = (h as f64 + 0.5 - 6.0) / 12.0;
+        let ghi = if (0.0..1.0).contains(&x) {
+            (800.0 * (std::f64::consts::PI * x).sin()).round()
+        } else {
+            0.0
+        };
+        s.push_str(&format!("{ghi},28.0,70\n"));
+    }
+    s
+}
+
+fn evaluate_file(tag: &str, body: &str) -> (i32, String) {
+    let d = tmp(tag);
+    let p = file_weather_scenario(&d, body);
+    let o = run(&["evaluate", p.to_str().unwrap(), "--quiet"]);
+    let r = (o.status.code().unwrap_or(-1), stderr(&o));
+    let _ = std::fs::remove_dir_all(&d);
+    r
+}
+
+#[test]
+fn weather_file_with_8760_rows_runs_and_is_flagged() {
+    let d = tmp("wfile");
+    let p = file_weather_scenario(&d, &weather_rows(8760));
+    let o = run(&["weather", p.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("DERIVED from GHI by Erbs"));
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+#[test]
+fn weather_file_8759_rows() {
+    let (code, err) = evaluate_file("w8759", &weather_rows(8759));
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("w.csv") && err.contains("8759"), "{err}");
+}
+
+#[test]
+fn weather_file_non_numeric_cell() {
+    let body = weather_rows(8760).replacen("28.0,70", "28.0,humid", 1);
+    let (code, err) = evaluate_file("wnum", &body);
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("line 2") && err.contains("RH"), "{err}");
+}
+
+#[test]
+fn weather_file_duplicated_header() {
+    let body = weather_rows(8760).replacen("GHI,T,RH", "GHI,T,T,RH", 1);
+    let (code, err) = evaluate_file("wdup", &body);
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("header"), "{err}");
+}
+
+#[test]
+fn weather_file_empty() {
+    let (code, err) = evaluate_file("wempty", "");
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("w.csv"), "{err}");
+}
