@@ -49,12 +49,210 @@ enum Verb {
         #[arg(long, value_name = "FILE.csv")]
         csv: Option<PathBuf>,
     },
+    /// Print one state point of a working substance, to check by hand.
+    State {
+        #[command(subcommand)]
+        substance: Substance,
+    },
     /// Print every reference check with value, expected, tolerance, source and pass/fail.
     Checks {
         /// Print as JSON instead of a table.
         #[arg(long)]
         json: bool,
     },
+}
+
+#[derive(Subcommand)]
+enum Substance {
+    /// Humid air (ASHRAE Handbook—Fundamentals 2017 ch. 1): dry-bulb and one humidity measure.
+    /// Enthalpy per kg of dry air, referred to dry air and liquid water at 0 °C.
+    Air {
+        /// Dry-bulb, °C.
+        #[arg(long = "t-c", allow_negative_numbers = true)]
+        t_c: f64,
+        /// Relative humidity, %.
+        #[arg(long, group = "hum")]
+        rh: Option<f64>,
+        /// Humidity ratio, kg/kg.
+        #[arg(long, group = "hum")]
+        w: Option<f64>,
+        /// Wet-bulb, °C.
+        #[arg(long = "t-wb-c", group = "hum", allow_negative_numbers = true)]
+        t_wb_c: Option<f64>,
+        /// Dew point, °C.
+        #[arg(long = "t-dp-c", group = "hum", allow_negative_numbers = true)]
+        t_dp_c: Option<f64>,
+        /// Barometric pressure, kPa (default: from --elevation-m, else 101.325).
+        #[arg(long = "p-kpa", conflicts_with = "elevation_m")]
+        p_kpa: Option<f64>,
+        /// Elevation, m: standard-atmosphere pressure.
+        #[arg(long = "elevation-m", allow_negative_numbers = true)]
+        elevation_m: Option<f64>,
+        #[arg(long)]
+        json: bool,
+    },
+    /// Water and steam (IAPWS-IF97): temperature or pressure with a quality on the saturation
+    /// line, or temperature and pressure for a single phase. Enthalpy and entropy as IF97:
+    /// zero internal energy and entropy of saturated liquid at the triple point.
+    Water {
+        /// Temperature, °C.
+        #[arg(long = "t-c")]
+        t_c: Option<f64>,
+        /// Pressure, kPa.
+        #[arg(long = "p-kpa")]
+        p_kpa: Option<f64>,
+        /// Vapour quality 0..1 (saturated states).
+        #[arg(long)]
+        q: Option<f64>,
+        #[arg(long)]
+        json: bool,
+    },
+}
+
+fn state(s: Substance) -> Result<String, Error> {
+    use parhelion::props::{psychro, water};
+    use parhelion::report::state::{Quantity as Q, render_json, render_text};
+    match s {
+        Substance::Air {
+            t_c,
+            rh,
+            w,
+            t_wb_c,
+            t_dp_c,
+            p_kpa,
+            elevation_m,
+            json,
+        } => {
+            let p = p_kpa
+                .unwrap_or_else(|| elevation_m.map_or(101.325, psychro::pressure_at_elevation_kpa));
+            let a = match (rh, w, t_wb_c, t_dp_c) {
+                (Some(rh), ..) => psychro::state_from_rh(t_c, rh, p)?,
+                (_, Some(w), ..) => psychro::state_from_ratio(t_c, w, p)?,
+                (_, _, Some(wb), _) => psychro::state_from_wet_bulb(t_c, wb, p)?,
+                (_, _, _, Some(dp)) => psychro::state_from_dew_point(t_c, dp, p)?,
+                _ => {
+                    return Err(Error::input(
+                        "humidity",
+                        "(none given)",
+                        "give one of --rh, --w, --t-wb-c or --t-dp-c",
+                    ));
+                }
+            };
+            let q = [
+                Q {
+                    key: "t_c",
+                    label: "dry-bulb, °C",
+                    value: Some(a.t_c),
+                },
+                Q {
+                    key: "rh_pct",
+                    label: "relative humidity, %",
+                    value: Some(a.rh_pct),
+                },
+                Q {
+                    key: "w_kg_kg",
+                    label: "humidity ratio, kg/kg",
+                    value: Some(a.w_kg_kg),
+                },
+                Q {
+                    key: "t_wb_c",
+                    label: "wet-bulb, °C",
+                    value: Some(a.t_wb_c),
+                },
+                Q {
+                    key: "t_dp_c",
+                    label: "dew point, °C",
+                    value: Some(a.t_dp_c),
+                },
+                Q {
+                    key: "h_kj_kg",
+                    label: "enthalpy, kJ/kg dry air",
+                    value: Some(a.h_kj_kg),
+                },
+                Q {
+                    key: "v_m3_kg",
+                    label: "specific volume, m³/kg dry air",
+                    value: Some(a.v_m3_kg),
+                },
+                Q {
+                    key: "rho_kg_m3",
+                    label: "density of moist air, kg/m³",
+                    value: Some(a.rho_kg_m3),
+                },
+                Q {
+                    key: "p_kpa",
+                    label: "pressure, kPa",
+                    value: Some(a.p_kpa),
+                },
+            ];
+            Ok(if json {
+                render_json(&[], &q)
+            } else {
+                render_text("humid air (ASHRAE 2017)", &q)
+            })
+        }
+        Substance::Water {
+            t_c,
+            p_kpa,
+            q,
+            json,
+        } => {
+            let st = match (t_c, p_kpa, q) {
+                (Some(t), None, Some(q)) => water::state_tq(t, q)?,
+                (None, Some(p), Some(q)) => water::state_pq(p, q)?,
+                (Some(t), Some(p), None) => water::state_tp(t, p)?,
+                _ => {
+                    return Err(Error::input(
+                        "arguments",
+                        "(this combination)",
+                        "give --t-c with --q, --p-kpa with --q, or --t-c with --p-kpa",
+                    ));
+                }
+            };
+            let v = [
+                Q {
+                    key: "t_c",
+                    label: "temperature, °C",
+                    value: Some(st.t_c),
+                },
+                Q {
+                    key: "p_kpa",
+                    label: "pressure, kPa",
+                    value: Some(st.p_kpa),
+                },
+                Q {
+                    key: "q",
+                    label: "quality",
+                    value: st.q,
+                },
+                Q {
+                    key: "h_kj_kg",
+                    label: "enthalpy, kJ/kg",
+                    value: Some(st.h_kj_kg),
+                },
+                Q {
+                    key: "s_kj_kg_k",
+                    label: "entropy, kJ/(kg·K)",
+                    value: Some(st.s_kj_kg_k),
+                },
+                Q {
+                    key: "rho_kg_m3",
+                    label: "density, kg/m³",
+                    value: Some(st.rho_kg_m3),
+                },
+                Q {
+                    key: "cp_kj_kg_k",
+                    label: "cp, kJ/(kg·K)",
+                    value: st.cp_kj_kg_k,
+                },
+            ];
+            Ok(if json {
+                render_json(&[], &v)
+            } else {
+                render_text("water (IAPWS-IF97)", &v)
+            })
+        }
+    }
 }
 
 fn main() -> ExitCode {
@@ -166,6 +364,10 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 write_atomic(c, &parhelion::report::weather::render_csv(&s)?)?;
             }
             print(&parhelion::report::weather::render(&s))?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Verb::State { substance } => {
+            print(&state(substance)?)?;
             Ok(ExitCode::SUCCESS)
         }
         Verb::Checks { json } => {

@@ -398,3 +398,37 @@ fn weather_file_empty() {
     assert_eq!(code, 2, "{err}");
     assert!(err.contains("w.csv"), "{err}");
 }
+
+#[test]
+fn state_air_and_water() {
+    // ASHRAE 2017 ch. 1 formulation checked against psychrolib 2.5.0 in reference/; here the
+    // verb's plumbing: 32 °C, 60 % at sea level has W ≈ 0.0180 kg/kg (psychrolib 2.5.0 gives
+    // 0.018033).
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "60", "--json"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!((v["w_kg_kg"].as_f64().unwrap() - 0.018033).abs() < 2e-6);
+    for k in [
+        "t_c",
+        "rh_pct",
+        "w_kg_kg",
+        "t_wb_c",
+        "t_dp_c",
+        "h_kj_kg",
+        "v_m3_kg",
+        "rho_kg_m3",
+        "p_kpa",
+    ] {
+        assert!(v.get(k).is_some(), "air JSON lacks {k}");
+    }
+    // Saturated vapour at 5 °C: IF97 gives ps = 0.8726 kPa (steam tables, e.g. Çengel & Boles
+    // 8th ed. Table A-4: 0.8725 kPa, hg = 2510.1 kJ/kg; from memory).
+    let o = run(&["state", "water", "--t-c", "5", "--q", "1", "--json"]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!((v["p_kpa"].as_f64().unwrap() - 0.8725).abs() < 0.001);
+    assert!((v["h_kj_kg"].as_f64().unwrap() - 2510.1).abs() < 0.2);
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "140"]);
+    assert_eq!(o.status.code(), Some(2));
+    let o = run(&["state", "water", "--t-c", "5"]);
+    assert_eq!(o.status.code(), Some(2));
+}

@@ -5,5 +5,6 @@ pub mod checks;
 pub mod files;
 pub mod hourly;
 pub mod json;
+pub mod state;
 pub mod table;
 pub mod weather;
