@@ -11,7 +11,7 @@
 //! * `chiller_ahri.csv` – AHRI 550/590 rating point, IPLV formula and plausibility of defaults.
 
 use super::Check;
-use super::table::{Row, parse};
+use super::table::{check, parse};
 use crate::components::chiller_electric::{AHRI_T_CHW_C, ChillerSpec, Condenser, IPLV_WEIGHTS};
 use crate::error::{Error, Result};
 use crate::props::psychro;
@@ -22,25 +22,6 @@ const CHILLER: &str = include_str!("../../reference/chiller_ahri.csv");
 
 fn unknown(table: &str, q: &str) -> Error {
     Error::Internal(format!("reference/{table}: unknown quantity `{q}`"))
-}
-
-fn check(
-    group: &'static str,
-    table: &'static str,
-    case: String,
-    value: f64,
-    row: &Row,
-) -> Result<Check> {
-    let (expected, tolerance, source) = row.expected()?;
-    Ok(Check {
-        group,
-        table,
-        case,
-        value,
-        expected,
-        tolerance,
-        source,
-    })
 }
 
 fn psychrolib_checks(out: &mut Vec<Check>) -> Result<()> {

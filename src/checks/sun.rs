@@ -8,7 +8,7 @@
 //! * `sky_pvlib.csv` – plane irradiance for the three sky models against pvlib (group `sky`).
 
 use super::Check;
-use super::table::{Row, parse};
+use super::table::{check, parse};
 use crate::error::{Error, Result};
 use crate::sun::geometry::{cos_zenith, declination_cooper_deg, extraterrestrial_normal_w_m2};
 use crate::sun::incidence::{Plane, Tracking, cos_aoi, track};
@@ -34,25 +34,6 @@ pub fn checks() -> Result<Vec<Check>> {
     tracking_pvlib(&mut out)?;
     sky_pvlib(&mut out)?;
     Ok(out)
-}
-
-fn check(
-    group: &'static str,
-    table: &'static str,
-    case: String,
-    value: f64,
-    row: &Row,
-) -> Result<Check> {
-    let (expected, tolerance, source) = row.expected()?;
-    Ok(Check {
-        group,
-        table,
-        case,
-        value,
-        expected,
-        tolerance,
-        source,
-    })
 }
 
 /// An azimuth put on the expected value's side of the 0/360 cut, so the difference is the

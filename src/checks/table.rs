@@ -43,6 +43,26 @@ impl Row {
     }
 }
 
+/// A check of `value` against this row's `expected`, `tolerance` and `source`.
+pub fn check(
+    group: &'static str,
+    table: &'static str,
+    case: String,
+    value: f64,
+    row: &Row,
+) -> Result<super::Check> {
+    let (expected, tolerance, source) = row.expected()?;
+    Ok(super::Check {
+        group,
+        table,
+        case,
+        value,
+        expected,
+        tolerance,
+        source,
+    })
+}
+
 /// Parse an embedded table (`include_str!("../../reference/NAME.csv")`).
 /// `#` lines are comments; the first other line is the header.
 pub fn parse(table: &'static str, text: &str) -> Result<Vec<Row>> {
