@@ -1,6 +1,8 @@
 //! `parhelion` command line: parse, call the library, print, map errors to exit codes
 //! (0 success, 2 bad input, 1 internal failure).
 
+mod cli;
+
 use clap::{Parser, Subcommand};
 use parhelion::report::files::{refuse_input, write_atomic};
 use parhelion::{Error, scenario};
@@ -48,6 +50,69 @@ enum Verb {
         /// Also write the summary as CSV.
         #[arg(long, value_name = "FILE.csv")]
         csv: Option<PathBuf>,
+    },
+    /// Find the value of one scenario quantity that meets a target on an annual figure, or
+    /// that minimises (maximises) a figure over one or two quantities.
+    Size {
+        scenario: PathBuf,
+        /// The option whose figure is targeted.
+        #[arg(long)]
+        option: String,
+        /// FIGURE=VALUE, e.g. solar_fraction=0.6.
+        #[arg(long, conflicts_with = "minimize")]
+        target: Option<String>,
+        /// FIGURE to minimise (fractions, COPs and yields are maximised).
+        #[arg(long)]
+        minimize: Option<String>,
+        /// KEY[=LO:HI] to vary (default options.OPTION.field.gross_area_m2 from 0.2 to 5
+        /// times its value); give two for --minimize over two quantities.
+        #[arg(long)]
+        vary: Vec<String>,
+        /// Solver tolerance on the varied quantity (default 0.1 % of its range).
+        #[arg(long)]
+        tol: Option<f64>,
+    },
+    /// Run a full grid of designs over scenario keys; one CSV row per design and option.
+    Sweep {
+        scenario: PathBuf,
+        /// KEY=START:STOP:STEP (repeat for a grid).
+        #[arg(long = "set", required = true)]
+        set: Vec<String>,
+        /// Simulate only this option.
+        #[arg(long)]
+        option: Option<String>,
+        /// Write the CSV here (default: standard output).
+        #[arg(long, value_name = "FILE.csv")]
+        out: Option<PathBuf>,
+        /// No progress bar.
+        #[arg(long)]
+        quiet: bool,
+    },
+    /// One-at-a-time sensitivity of an annual figure to each `[[uncertainty.inputs]]`.
+    Sensitivity {
+        scenario: PathBuf,
+        #[arg(long)]
+        option: String,
+        /// Annual figure (JSON summary key).
+        #[arg(long, default_value = "solar_fraction")]
+        figure: String,
+    },
+    /// Latin-hypercube uncertainty over the `[[uncertainty.inputs]]`: P10/P50/P90 of each
+    /// option's figures and the probability each beats the reference.
+    Uncertainty {
+        scenario: PathBuf,
+        #[arg(long)]
+        samples: usize,
+        #[arg(long, default_value_t = 1)]
+        seed: u64,
+        /// Figure on which options are compared with the reference.
+        #[arg(long, default_value = "electricity_kwh")]
+        figure: String,
+        /// Write every sample's figures to this CSV.
+        #[arg(long, value_name = "FILE.csv")]
+        out: Option<PathBuf>,
+        #[arg(long)]
+        quiet: bool,
     },
     /// Print one state point of a working substance, to check by hand.
     State {
@@ -364,6 +429,81 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 write_atomic(c, &parhelion::report::weather::render_csv(&s)?)?;
             }
             print(&parhelion::report::weather::render(&s))?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Verb::Size {
+            scenario,
+            option,
+            target,
+            minimize,
+            vary,
+            tol,
+        } => {
+            print(&cli::explore::size(cli::explore::SizeArgs {
+                scenario: &scenario,
+                option: &option,
+                target: target.as_deref(),
+                minimize: minimize.as_deref(),
+                vary: &vary,
+                tol,
+            })?)?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Verb::Sweep {
+            scenario,
+            set,
+            option,
+            out,
+            quiet,
+        } => {
+            if let Some(o) = &out {
+                refuse_input(o, std::slice::from_ref(&scenario))?;
+            }
+            let (csv, note) = cli::explore::sweep(cli::explore::SweepArgs {
+                scenario: &scenario,
+                set: &set,
+                option: option.as_deref(),
+                quiet,
+            })?;
+            match &out {
+                Some(o) => write_atomic(o, &csv)?,
+                None => print(&String::from_utf8_lossy(&csv))?,
+            }
+            if !quiet {
+                eprint!("{note}");
+            }
+            Ok(ExitCode::SUCCESS)
+        }
+        Verb::Sensitivity {
+            scenario,
+            option,
+            figure,
+        } => {
+            print(&cli::explore::sensitivity(&scenario, &option, &figure)?)?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Verb::Uncertainty {
+            scenario,
+            samples,
+            seed,
+            figure,
+            out,
+            quiet,
+        } => {
+            if let Some(o) = &out {
+                refuse_input(o, std::slice::from_ref(&scenario))?;
+            }
+            let (text, csv) = cli::explore::uncertainty(cli::explore::UncertaintyArgs {
+                scenario: &scenario,
+                samples,
+                seed,
+                figure: &figure,
+                quiet,
+            })?;
+            if let Some(o) = &out {
+                write_atomic(o, &csv)?;
+            }
+            print(&text)?;
             Ok(ExitCode::SUCCESS)
         }
         Verb::State { substance } => {

@@ -243,7 +243,7 @@ fn absurd_latitude() {
 
 #[test]
 fn negative_area() {
-    let t = demo_text().replace("modules = 24 ", "gross_area_m2 = -5.0 ");
+    let t = demo_text().replace("gross_area_m2 = 60.0 ", "gross_area_m2 = -5.0 ");
     assert_bad(
         "area",
         &t,

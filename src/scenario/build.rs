@@ -59,7 +59,12 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
         elevation_m: s.site.elevation_m,
         utc_offset_h: s.site.utc_offset_h,
     };
-    let weather = load_weather(l, &site)?;
+    let mut weather = load_weather(l, &site)?;
+    scale_weather(
+        &mut weather,
+        s.weather.irradiation_scale,
+        s.weather.temperature_shift_k,
+    );
     let sun = year_positions(&site, s.site.year).map_err(|e| e.within(&file, "site"))?;
     let p_site = psychro::pressure_at_elevation_kpa(s.site.elevation_m);
 
@@ -108,6 +113,20 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
         heat_demand,
         load_origin: load.origin,
     })
+}
+
+/// Scale irradiance and shift dry-bulb for sensitivity studies (identity at 1 and 0).
+fn scale_weather(w: &mut WeatherYear, scale: f64, shift_k: f64) {
+    if scale == 1.0 && shift_k == 0.0 {
+        return;
+    }
+    for h in &mut w.hours {
+        h.ghi_w_m2 *= scale;
+        h.dni_w_m2 *= scale;
+        h.dhi_w_m2 *= scale;
+        h.t_db_c += shift_k;
+    }
+    w.origin = format!("{}, irradiance × {scale}, dry-bulb {shift_k:+} K", w.origin);
 }
 
 fn weather_hour_error(w: &WeatherYear, i: usize, e: Error) -> Error {
@@ -358,8 +377,11 @@ fn solar_loop(
     };
     let (store, m3) = match st.kind {
         StorageKind::Tank => {
+            let gross_m2 = f64::from(modules) * field.collector.gross_m2;
             let spec = TankSpec {
-                volume_m3: st.volume_m3.unwrap_or(0.0),
+                volume_m3: st
+                    .volume_m3
+                    .unwrap_or_else(|| st.volume_l_per_m2.unwrap_or(0.0) * gross_m2 / 1000.0),
                 height_m: st.height_m.unwrap_or(0.0),
                 ua_w_k: st.ua_w_k,
                 nodes: st.nodes as usize,

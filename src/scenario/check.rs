@@ -40,6 +40,30 @@ pub fn check(s: &Scenario, file: &str) -> Result<()> {
     for (name, o) in &s.options {
         w(option(s, o), &format!("options.{name}"))?;
     }
+    if let Some(u) = &s.uncertainty {
+        for (i, inp) in u.inputs.iter().enumerate() {
+            let k = format!("uncertainty.inputs[{i}]");
+            if !(inp.low.is_finite() && inp.high.is_finite() && inp.low < inp.high) {
+                return Err(Error::Input {
+                    file: file.into(),
+                    key: format!("{k}.high"),
+                    value: inp.high.to_string(),
+                    allowed: format!(
+                        "low and high must be finite with low < high (low = {})",
+                        inp.low
+                    ),
+                });
+            }
+            if inp.key.trim().is_empty() {
+                return Err(Error::Input {
+                    file: file.into(),
+                    key: format!("{k}.key"),
+                    value: "\"\"".into(),
+                    allowed: "a dotted key path of this scenario".into(),
+                });
+            }
+        }
+    }
     Ok(())
 }
 
@@ -109,6 +133,20 @@ fn site(s: &SiteSection) -> Result<()> {
 }
 
 fn weather(s: &WeatherSection) -> Result<()> {
+    in_range(
+        "irradiation_scale",
+        s.irradiation_scale,
+        0.5,
+        1.5,
+        "factor on every irradiance of the year",
+    )?;
+    in_range(
+        "temperature_shift_k",
+        s.temperature_shift_k,
+        -10.0,
+        10.0,
+        "shift of every dry-bulb, K",
+    )?;
     match s.source {
         WeatherSource::Synthetic => match &s.synthetic {
             Some(n) => n.validate().map_err(|e| e.within("", "synthetic")),

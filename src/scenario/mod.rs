@@ -7,6 +7,7 @@
 
 pub mod build;
 pub mod check;
+pub mod edit;
 pub mod parse;
 pub mod schema;
 pub mod starter;

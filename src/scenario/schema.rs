@@ -38,6 +38,41 @@ pub struct Scenario {
     pub collectors: IndexMap<String, CollectorSpec>,
     /// The plants to compare, in the order given.
     pub options: IndexMap<String, OptionSection>,
+    /// Uncertain inputs for `parhelion sensitivity` and `parhelion uncertainty`.
+    #[serde(default)]
+    pub uncertainty: Option<UncertaintySection>,
+}
+
+/// `[uncertainty]`: the inputs whose uncertainty the sensitivity and uncertainty verbs explore.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct UncertaintySection {
+    /// One `[[uncertainty.inputs]]` per uncertain number.
+    pub inputs: Vec<UncertainInput>,
+}
+
+/// How an uncertain input is spread between `low` and `high`.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Deserialize)]
+#[serde(rename_all = "lowercase")]
+pub enum Distribution {
+    /// Equally likely anywhere between low and high.
+    #[default]
+    Uniform,
+    /// Triangular between low and high with its mode at the scenario's own value.
+    Triangular,
+}
+
+/// One uncertain number, by its dotted key path in this scenario.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct UncertainInput {
+    /// Dotted key path, e.g. `options.solar.field.gross_area_m2` or
+    /// `weather.irradiation_scale`.
+    pub key: String,
+    pub low: f64,
+    pub high: f64,
+    #[serde(default)]
+    pub distribution: Distribution,
 }
 
 /// Heat allocation rule between the cooling route and the heat demand.
@@ -67,6 +102,10 @@ pub struct SiteSection {
     pub jan1_weekday: u32,
 }
 
+fn unity() -> f64 {
+    1.0
+}
+
 fn default_albedo() -> f64 {
     0.2
 }
@@ -86,6 +125,14 @@ pub enum WeatherSource {
 #[serde(deny_unknown_fields)]
 pub struct WeatherSection {
     pub source: WeatherSource,
+    /// Factor on every irradiance of the year (GHI, DNI, DHI), for sensitivity studies.
+    #[serde(default = "unity")]
+    pub irradiation_scale: f64,
+    /// Shift of every dry-bulb temperature of the year, K, for sensitivity studies; the
+    /// humidity stays as the source gives it (dew point, ratio or RH), a dew point never
+    /// above the dry-bulb.
+    #[serde(default)]
+    pub temperature_shift_k: f64,
     pub synthetic: Option<MonthlyNormals>,
     pub file: Option<FileSpec>,
 }
@@ -277,7 +324,10 @@ pub enum StorageKind {
 #[serde(deny_unknown_fields)]
 pub struct StorageSection {
     pub kind: StorageKind,
+    /// Tank volume, m³ — or give `volume_l_per_m2` to make it follow the collector area.
     pub volume_m3: Option<f64>,
+    /// Tank volume per m² of gross collector area, litres/m².
+    pub volume_l_per_m2: Option<f64>,
     pub height_m: Option<f64>,
     #[serde(default = "default_nodes")]
     pub nodes: u32,

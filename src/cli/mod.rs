@@ -1,0 +1,3 @@
+//! Command-line helpers of the binary.
+
+pub mod explore;
