@@ -3,7 +3,9 @@
 
 pub mod boiler;
 pub mod chiller_electric;
+pub mod absorption_cycle;
 pub mod collector;
+pub mod cooling_tower;
 pub mod field;
 pub mod hx;
 pub mod pcm;
