@@ -70,14 +70,61 @@ impl Rating {
     /// Check the rating: capacity 0..1e5 kW; each circuit's inlet/outlet in the right order;
     /// chilled water below cooling water below hot water; SHX effectiveness in (0, 1).
     pub fn validate(&self) -> Result<()> {
-        validate::positive("capacity_kw", self.capacity_kw, 1e5, "cooling capacity at rating, kW")?;
-        validate::open_range("sol_hx_effectiveness", self.sol_hx_effectiveness, 0.0, 1.0, "solution heat exchanger effectiveness")?;
-        validate::in_range("t_chw_out_c", self.t_chw_out_c, 3.0, 20.0, "chilled water leaving, °C")?;
-        validate::in_range("t_chw_in_c", self.t_chw_in_c, self.t_chw_out_c + 1.0, 25.0, "chilled water entering, °C (above the leaving temperature)")?;
-        validate::in_range("t_cw_in_c", self.t_cw_in_c, self.t_chw_in_c + 1.0, 45.0, "cooling water entering, °C (above the chilled water)")?;
-        validate::in_range("t_cw_out_c", self.t_cw_out_c, self.t_cw_in_c + 1.0, 50.0, "cooling water leaving, °C (above its entering temperature)")?;
-        validate::in_range("t_hw_in_c", self.t_hw_in_c, self.t_cw_out_c + 20.0, 130.0, "hot water entering, °C (at least 20 K above the cooling water leaving)")?;
-        validate::in_range("t_hw_out_c", self.t_hw_out_c, self.t_cw_out_c + 15.0, self.t_hw_in_c - 1.0, "hot water leaving, °C (below its entering temperature)")?;
+        validate::positive(
+            "capacity_kw",
+            self.capacity_kw,
+            1e5,
+            "cooling capacity at rating, kW",
+        )?;
+        validate::open_range(
+            "sol_hx_effectiveness",
+            self.sol_hx_effectiveness,
+            0.0,
+            1.0,
+            "solution heat exchanger effectiveness",
+        )?;
+        validate::in_range(
+            "t_chw_out_c",
+            self.t_chw_out_c,
+            3.0,
+            20.0,
+            "chilled water leaving, °C",
+        )?;
+        validate::in_range(
+            "t_chw_in_c",
+            self.t_chw_in_c,
+            self.t_chw_out_c + 1.0,
+            25.0,
+            "chilled water entering, °C (above the leaving temperature)",
+        )?;
+        validate::in_range(
+            "t_cw_in_c",
+            self.t_cw_in_c,
+            self.t_chw_in_c + 1.0,
+            45.0,
+            "cooling water entering, °C (above the chilled water)",
+        )?;
+        validate::in_range(
+            "t_cw_out_c",
+            self.t_cw_out_c,
+            self.t_cw_in_c + 1.0,
+            50.0,
+            "cooling water leaving, °C (above its entering temperature)",
+        )?;
+        validate::in_range(
+            "t_hw_in_c",
+            self.t_hw_in_c,
+            self.t_cw_out_c + 20.0,
+            130.0,
+            "hot water entering, °C (at least 20 K above the cooling water leaving)",
+        )?;
+        validate::in_range(
+            "t_hw_out_c",
+            self.t_hw_out_c,
+            self.t_cw_out_c + 15.0,
+            self.t_hw_in_c - 1.0,
+            "hot water leaving, °C (below its entering temperature)",
+        )?;
         Ok(())
     }
 }
@@ -156,7 +203,8 @@ impl CyclePoint {
 
     /// Relative closure of the global energy balance `(Q_g + Q_e + W_p − Q_a − Q_c)/Q_g`.
     pub fn energy_closure(&self) -> f64 {
-        (self.q_gen_kw + self.q_evap_kw + self.w_pump_kw - self.q_abs_kw - self.q_cond_kw) / self.q_gen_kw
+        (self.q_gen_kw + self.q_evap_kw + self.w_pump_kw - self.q_abs_kw - self.q_cond_kw)
+            / self.q_gen_kw
     }
 }
 
@@ -283,10 +331,20 @@ impl Machine {
         let m_cw = (d.p.q_abs_kw + d.p.q_cond_kw) / (CP_W * (r.t_cw_out_c - r.t_cw_in_c));
         let c_cw = m_cw * CP_W;
         let t_mid = r.t_cw_in_c + d.p.q_abs_kw / c_cw;
-        let ua_gen = ua(d.p.q_gen_kw, m_hw * CP_W, r.t_hw_in_c - d.t_gen_mean, "generator")?;
+        let ua_gen = ua(
+            d.p.q_gen_kw,
+            m_hw * CP_W,
+            r.t_hw_in_c - d.t_gen_mean,
+            "generator",
+        )?;
         let ua_abs = ua(d.p.q_abs_kw, c_cw, d.t_abs_mean - r.t_cw_in_c, "absorber")?;
         let ua_cond = ua(d.p.q_cond_kw, c_cw, t_c - t_mid, "condenser")?;
-        let ua_evap = ua(r.capacity_kw, m_chw * CP_W, r.t_chw_in_c - t_e, "evaporator")?;
+        let ua_evap = ua(
+            r.capacity_kw,
+            m_chw * CP_W,
+            r.t_chw_in_c - t_e,
+            "evaporator",
+        )?;
         let mut p = d.p;
         p.t_hw_in_c = r.t_hw_in_c;
         p.t_hw_out_c = r.t_hw_out_c;
@@ -314,7 +372,13 @@ impl Machine {
     }
 
     /// Residuals (scaled by the capacity) and the state, for unknowns `u = (t_c, x_w, x_s, z)`.
-    fn residuals(&self, u: [f64; 4], mode: Mode, t_cw_in: f64, t_chw_out: f64) -> Result<([f64; 4], CyclePoint)> {
+    fn residuals(
+        &self,
+        u: [f64; 4],
+        mode: Mode,
+        t_cw_in: f64,
+        t_chw_out: f64,
+    ) -> Result<([f64; 4], CyclePoint)> {
         let (q_target, t_hw_in) = match mode {
             Mode::MeetLoad { q_evap_kw } => (q_evap_kw, u[3]),
             Mode::GivenSupply { t_hw_in_c } => (u[3], t_hw_in_c),
@@ -324,14 +388,23 @@ impl Machine {
         let c_hw = self.m_hw_kg_s * CP_W;
         let eps_e = self.eps(self.ua_evap_kw_k, c_chw);
         let t_e = t_chw_out - q_target * (1.0 / eps_e - 1.0) / c_chw;
-        let s = internal(t_e, u[0], u[1], u[2], self.m_weak_kg_s, self.rating.sol_hx_effectiveness)?;
+        let s = internal(
+            t_e,
+            u[0],
+            u[1],
+            u[2],
+            self.m_weak_kg_s,
+            self.rating.sol_hx_effectiveness,
+        )?;
         let p = s.p;
         let t_mid = t_cw_in + p.q_abs_kw / c_cw;
         let scale = self.rating.capacity_kw;
         let r = [
             (p.q_evap_kw - q_target) / scale,
-            (p.q_gen_kw - self.eps(self.ua_gen_kw_k, c_hw) * c_hw * (t_hw_in - s.t_gen_mean)) / scale,
-            (p.q_abs_kw - self.eps(self.ua_abs_kw_k, c_cw) * c_cw * (s.t_abs_mean - t_cw_in)) / scale,
+            (p.q_gen_kw - self.eps(self.ua_gen_kw_k, c_hw) * c_hw * (t_hw_in - s.t_gen_mean))
+                / scale,
+            (p.q_abs_kw - self.eps(self.ua_abs_kw_k, c_cw) * c_cw * (s.t_abs_mean - t_cw_in))
+                / scale,
             (p.q_cond_kw - self.eps(self.ua_cond_kw_k, c_cw) * c_cw * (u[0] - t_mid)) / scale,
         ];
         let mut out = p;
@@ -358,7 +431,13 @@ impl Machine {
     /// converged when every scaled residual < 1e-9 (≤ 30 iterations). Errors: `Internal` on
     /// non-convergence, or when the solution has no refrigerant flow (x_s ≤ x_w: the
     /// generator is below its minimum temperature), or a property leaves its range.
-    pub fn solve(&self, mode: Mode, t_cw_in_c: f64, t_chw_out_c: f64, warm: Option<&CyclePoint>) -> Result<CyclePoint> {
+    pub fn solve(
+        &self,
+        mode: Mode,
+        t_cw_in_c: f64,
+        t_chw_out_c: f64,
+        warm: Option<&CyclePoint>,
+    ) -> Result<CyclePoint> {
         let w = warm.unwrap_or(&self.design);
         let z0 = match mode {
             Mode::MeetLoad { .. } => w.t_hw_in_c,
@@ -366,12 +445,23 @@ impl Machine {
         };
         let mut u = [w.t_cond_c, w.x_weak, w.x_strong, z0];
         let cap = self.rating.capacity_kw;
-        let steps = [1e-5, 1e-7, 1e-7, match mode { Mode::MeetLoad { .. } => 1e-5, Mode::GivenSupply { .. } => 1e-7 * cap }];
+        let steps = [
+            1e-5,
+            1e-7,
+            1e-7,
+            match mode {
+                Mode::MeetLoad { .. } => 1e-5,
+                Mode::GivenSupply { .. } => 1e-7 * cap,
+            },
+        ];
         for it in 0..30 {
             let (r, p) = self.residuals(u, mode, t_cw_in_c, t_chw_out_c)?;
             if r.iter().all(|v| v.abs() < 1e-9) {
                 if p.x_strong <= p.x_weak || p.m_ref_kg_s <= 0.0 {
-                    return Err(Error::Internal("absorption: no refrigerant flow (generator below its minimum temperature)".into()));
+                    return Err(Error::Internal(
+                        "absorption: no refrigerant flow (generator below its minimum temperature)"
+                            .into(),
+                    ));
                 }
                 let mut p = p;
                 p.iterations = it;
@@ -386,8 +476,17 @@ impl Machine {
                     j[i][k] = (rk[i] - r[i]) / steps[k];
                 }
             }
-            let du = solve4(j, [-r[0], -r[1], -r[2], -r[3]]).ok_or_else(|| Error::Internal("absorption: singular Jacobian".into()))?;
-            let lim = [5.0, 0.02, 0.02, match mode { Mode::MeetLoad { .. } => 10.0, Mode::GivenSupply { .. } => 0.3 * cap }];
+            let du = solve4(j, [-r[0], -r[1], -r[2], -r[3]])
+                .ok_or_else(|| Error::Internal("absorption: singular Jacobian".into()))?;
+            let lim = [
+                5.0,
+                0.02,
+                0.02,
+                match mode {
+                    Mode::MeetLoad { .. } => 10.0,
+                    Mode::GivenSupply { .. } => 0.3 * cap,
+                },
+            ];
             let mut f: f64 = 1.0;
             for k in 0..4 {
                 if du[k].abs() > lim[k] {
@@ -400,7 +499,9 @@ impl Machine {
             u[1] = u[1].clamp(0.3, libr::X_MAX - 1e-6);
             u[2] = u[2].clamp(0.3, libr::X_MAX - 1e-6);
         }
-        Err(Error::Internal("absorption: Newton did not converge in 30 iterations".into()))
+        Err(Error::Internal(
+            "absorption: Newton did not converge in 30 iterations".into(),
+        ))
     }
 
     /// Lowest hot-water inlet temperature at which the machine makes any cooling at these
@@ -408,7 +509,14 @@ impl Machine {
     /// 1e-4 × capacity).
     pub fn min_hot_water_c(&self, t_cw_in_c: f64, t_chw_out_c: f64) -> Result<f64> {
         let q = 1e-4 * self.rating.capacity_kw;
-        Ok(self.solve(Mode::MeetLoad { q_evap_kw: q }, t_cw_in_c, t_chw_out_c, None)?.t_hw_in_c)
+        Ok(self
+            .solve(
+                Mode::MeetLoad { q_evap_kw: q },
+                t_cw_in_c,
+                t_chw_out_c,
+                None,
+            )?
+            .t_hw_in_c)
     }
 }
 
@@ -423,8 +531,9 @@ fn solve4(mut a: [[f64; 4]; 4], mut b: [f64; 4]) -> Option<[f64; 4]> {
         b.swap(c, piv);
         for r in c + 1..4 {
             let f = a[r][c] / a[c][c];
-            for k in c..4 {
-                a[r][k] -= f * a[c][k];
+            let pivot_row = a[c];
+            for (ark, ack) in a[r].iter_mut().zip(pivot_row.iter()).skip(c) {
+                *ark -= f * ack;
             }
             b[r] -= f * b[c];
         }
@@ -454,7 +563,9 @@ mod tests {
         assert!(d.cop() > 0.65 && d.cop() < 0.8, "{}", d.cop());
         assert!(d.energy_closure().abs() < 1e-9);
         // Off-design solve at the rating reproduces the design.
-        let p = m.solve(Mode::GivenSupply { t_hw_in_c: 88.0 }, 31.0, 7.0, None).unwrap();
+        let p = m
+            .solve(Mode::GivenSupply { t_hw_in_c: 88.0 }, 31.0, 7.0, None)
+            .unwrap();
         assert!((p.q_evap_kw - 35.0).abs() < 1e-5, "{}", p.q_evap_kw);
         assert!((p.t_hw_out_c - 83.0).abs() < 1e-5);
         assert!((p.t_cw_out_c - 35.0).abs() < 1e-5);
@@ -464,10 +575,21 @@ mod tests {
     fn trends_of_the_trade() {
         // COP falls as cooling water rises and as hot water falls; capacity too (common practice).
         let m = m();
-        let a = m.solve(Mode::GivenSupply { t_hw_in_c: 88.0 }, 29.0, 7.0, None).unwrap();
-        let b = m.solve(Mode::GivenSupply { t_hw_in_c: 88.0 }, 33.0, 7.0, None).unwrap();
-        let c = m.solve(Mode::GivenSupply { t_hw_in_c: 80.0 }, 31.0, 7.0, None).unwrap();
-        assert!(a.q_evap_kw > b.q_evap_kw && a.cop() > b.cop(), "{} {}", a.cop(), b.cop());
+        let a = m
+            .solve(Mode::GivenSupply { t_hw_in_c: 88.0 }, 29.0, 7.0, None)
+            .unwrap();
+        let b = m
+            .solve(Mode::GivenSupply { t_hw_in_c: 88.0 }, 33.0, 7.0, None)
+            .unwrap();
+        let c = m
+            .solve(Mode::GivenSupply { t_hw_in_c: 80.0 }, 31.0, 7.0, None)
+            .unwrap();
+        assert!(
+            a.q_evap_kw > b.q_evap_kw && a.cop() > b.cop(),
+            "{} {}",
+            a.cop(),
+            b.cop()
+        );
         assert!(c.q_evap_kw < 35.0 && c.cop() < m.design.cop());
         // Trade statement (common practice): machines stop below about 65–75 °C supply at
         // 30 °C cooling water. The model's thermodynamic zero-capacity limit lies lower
@@ -476,16 +598,30 @@ mod tests {
         // 50 °C, and capacity at 65 °C is under a third of rating.
         let t_min = m.min_hot_water_c(30.0, 7.0).unwrap();
         assert!(t_min > 50.0 && t_min < 65.0, "{t_min}");
-        let p65 = m.solve(Mode::GivenSupply { t_hw_in_c: 65.0 }, 30.0, 7.0, None).unwrap();
+        let p65 = m
+            .solve(Mode::GivenSupply { t_hw_in_c: 65.0 }, 30.0, 7.0, None)
+            .unwrap();
         assert!(p65.q_evap_kw < 35.0 / 3.0, "{}", p65.q_evap_kw);
         // Below the limit there is no refrigerant flow: the solve says so.
-        assert!(m.solve(Mode::GivenSupply { t_hw_in_c: t_min - 3.0 }, 30.0, 7.0, None).is_err());
+        assert!(
+            m.solve(
+                Mode::GivenSupply {
+                    t_hw_in_c: t_min - 3.0
+                },
+                30.0,
+                7.0,
+                None
+            )
+            .is_err()
+        );
     }
 
     #[test]
     fn meet_load_lowers_supply() {
         let m = m();
-        let p = m.solve(Mode::MeetLoad { q_evap_kw: 20.0 }, 31.0, 7.0, None).unwrap();
+        let p = m
+            .solve(Mode::MeetLoad { q_evap_kw: 20.0 }, 31.0, 7.0, None)
+            .unwrap();
         assert!((p.q_evap_kw - 20.0).abs() < 1e-6);
         assert!(p.t_hw_in_c < 88.0 && p.t_hw_in_c > 60.0);
         assert!(p.energy_closure().abs() < 1e-9);
@@ -502,5 +638,22 @@ mod tests {
         let mut r = Rating::typical(35.0);
         r.sol_hx_effectiveness = 1.0;
         assert!(Machine::size(r).is_err());
+    }
+
+    proptest::proptest! {
+        #![proptest_config(proptest::prelude::ProptestConfig::with_cases(32))]
+        #[test]
+        fn energy_closes_everywhere(t_hw in 75.0..95.0f64, t_cw in 25.0..33.0f64, frac in 0.2..1.0f64) {
+            let m = Machine::size(Rating::typical(35.0)).unwrap();
+            if let Ok(p) = m.solve(Mode::GivenSupply { t_hw_in_c: t_hw }, t_cw, 7.0, None) {
+                proptest::prop_assert!(p.energy_closure().abs() < 1e-6);
+                let q = frac * p.q_evap_kw;
+                let r = m.solve(Mode::MeetLoad { q_evap_kw: q }, t_cw, 7.0, Some(&p)).unwrap();
+                proptest::prop_assert!(r.energy_closure().abs() < 1e-6);
+                proptest::prop_assert!((r.q_evap_kw - q).abs() < 1e-6 * 35.0);
+            } else {
+                proptest::prop_assert!(false, "no solution at {} / {}", t_hw, t_cw);
+            }
+        }
     }
 }

@@ -151,12 +151,48 @@ impl TowerSpec {
     /// Check every field: approach 1..15 K, range 1..20 K, design wet-bulb 0..35 °C, fan
     /// 0..50 W/kW, cycles 1.5..20, drift 0..0.01.
     pub fn validate(&self) -> Result<()> {
-        validate::in_range("design_approach_k", self.design_approach_k, 1.0, 15.0, "tower approach to wet-bulb at design, K")?;
-        validate::in_range("design_range_k", self.design_range_k, 1.0, 20.0, "tower water range at design, K")?;
-        validate::in_range("design_wet_bulb_c", self.design_wet_bulb_c, 0.0, 35.0, "design wet-bulb, °C")?;
-        validate::in_range("fan_w_per_kw_rejected", self.fan_w_per_kw_rejected, 0.0, 50.0, "fan power per kW of design heat rejected, W/kW")?;
-        validate::in_range("cycles_of_concentration", self.cycles_of_concentration, 1.5, 20.0, "cycles of concentration")?;
-        validate::in_range("drift_fraction", self.drift_fraction, 0.0, 0.01, "drift loss, fraction of circulating flow")?;
+        validate::in_range(
+            "design_approach_k",
+            self.design_approach_k,
+            1.0,
+            15.0,
+            "tower approach to wet-bulb at design, K",
+        )?;
+        validate::in_range(
+            "design_range_k",
+            self.design_range_k,
+            1.0,
+            20.0,
+            "tower water range at design, K",
+        )?;
+        validate::in_range(
+            "design_wet_bulb_c",
+            self.design_wet_bulb_c,
+            0.0,
+            35.0,
+            "design wet-bulb, °C",
+        )?;
+        validate::in_range(
+            "fan_w_per_kw_rejected",
+            self.fan_w_per_kw_rejected,
+            0.0,
+            50.0,
+            "fan power per kW of design heat rejected, W/kW",
+        )?;
+        validate::in_range(
+            "cycles_of_concentration",
+            self.cycles_of_concentration,
+            1.5,
+            20.0,
+            "cycles of concentration",
+        )?;
+        validate::in_range(
+            "drift_fraction",
+            self.drift_fraction,
+            0.0,
+            0.01,
+            "drift loss, fraction of circulating flow",
+        )?;
         Ok(())
     }
 
@@ -168,20 +204,31 @@ impl TowerSpec {
     /// `NTU = ln((1 − ε C_r)/(1 − ε))/(1 − C_r)` (counterflow inverse).
     /// Source: Jaber & Webb 1989.
     pub fn size(&self, design_heat_kw: f64) -> Result<Tower> {
-        validate::positive("design_heat_kw", design_heat_kw, 1e6, "design heat rejected, kW")?;
+        validate::positive(
+            "design_heat_kw",
+            design_heat_kw,
+            1e6,
+            "design heat rejected, kW",
+        )?;
         let p = 101.325;
         let t_cold = self.design_wet_bulb_c + self.design_approach_k;
         let t_hot = t_cold + self.design_range_k;
         let mw = design_heat_kw / (CP_W * self.design_range_k);
         let ma = mw / L_OVER_G;
-        let (hs_h, hs_c, hs_wb) = (h_sat(t_hot, p)?, h_sat(t_cold, p)?, h_sat(self.design_wet_bulb_c, p)?);
+        let (hs_h, hs_c, hs_wb) = (
+            h_sat(t_hot, p)?,
+            h_sat(t_cold, p)?,
+            h_sat(self.design_wet_bulb_c, p)?,
+        );
         let cs = (hs_h - hs_c) / (t_hot - t_cold);
         let cw = mw * CP_W / cs;
         let (cmin, cmax) = (ma.min(cw), ma.max(cw));
         let cr = cmin / cmax;
         let eps = design_heat_kw / (cmin * (hs_h - hs_wb));
         if !(eps > 0.0 && eps < 1.0) {
-            return Err(Error::Internal(format!("cooling tower design infeasible: effectiveness {eps}")));
+            return Err(Error::Internal(format!(
+                "cooling tower design infeasible: effectiveness {eps}"
+            )));
         }
         let ntu = if (1.0 - cr).abs() < 1e-9 {
             eps / (1.0 - eps)
@@ -205,7 +252,11 @@ impl Tower {
     /// `T_hot = T_cold + Q/(ṁ_w c_pw)`): the residual of the ε-NTU relation.
     fn rejected_kw(&self, t_cold_c: f64, heat_kw: f64, t_wb_c: f64, p_kpa: f64) -> Result<f64> {
         let t_hot = t_cold_c + heat_kw / (self.m_water_kg_s * CP_W);
-        let (hs_h, hs_c, h_in) = (h_sat(t_hot, p_kpa)?, h_sat(t_cold_c, p_kpa)?, h_sat(t_wb_c, p_kpa)?);
+        let (hs_h, hs_c, h_in) = (
+            h_sat(t_hot, p_kpa)?,
+            h_sat(t_cold_c, p_kpa)?,
+            h_sat(t_wb_c, p_kpa)?,
+        );
         let cs = if t_hot - t_cold_c > 1e-6 {
             (hs_h - hs_c) / (t_hot - t_cold_c)
         } else {
@@ -228,18 +279,39 @@ impl Tower {
     /// of the wet-bulb. Source: Jaber & Webb 1989.
     pub fn t_cold_c(&self, heat_kw: f64, t_wb_c: f64, p_kpa: f64) -> Result<f64> {
         if !(heat_kw.is_finite() && heat_kw >= 0.0) {
-            return Err(Error::OutOfRange { model: "cooling tower", quantity: "heat_kw", value: heat_kw, range: ">= 0".into() });
+            return Err(Error::OutOfRange {
+                model: "cooling tower",
+                quantity: "heat_kw",
+                value: heat_kw,
+                range: ">= 0".into(),
+            });
         }
         if !(t_wb_c.is_finite() && (-10.0..=40.0).contains(&t_wb_c)) {
-            return Err(Error::OutOfRange { model: "cooling tower", quantity: "wet-bulb, °C", value: t_wb_c, range: "-10..40 °C".into() });
+            return Err(Error::OutOfRange {
+                model: "cooling tower",
+                quantity: "wet-bulb, °C",
+                value: t_wb_c,
+                range: "-10..40 °C".into(),
+            });
         }
         if heat_kw <= 0.0 {
             return Ok(t_wb_c);
         }
-        let f = |t: f64| self.rejected_kw(t, heat_kw, t_wb_c, p_kpa).map_or(f64::NAN, |q| q - heat_kw);
+        let f = |t: f64| {
+            self.rejected_kw(t, heat_kw, t_wb_c, p_kpa)
+                .map_or(f64::NAN, |q| q - heat_kw)
+        };
         let hi = t_wb_c + 60.0;
-        if !(f(hi) > 0.0) {
-            return Err(Error::OutOfRange { model: "cooling tower", quantity: "heat_kw", value: heat_kw, range: format!("what the tower can reject within 60 K of the wet-bulb (design {} kW)", self.design_heat_kw) });
+        if f(hi).partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
+            return Err(Error::OutOfRange {
+                model: "cooling tower",
+                quantity: "heat_kw",
+                value: heat_kw,
+                range: format!(
+                    "what the tower can reject within 60 K of the wet-bulb (design {} kW)",
+                    self.design_heat_kw
+                ),
+            });
         }
         crate::num::brent("cooling tower cold water", t_wb_c, hi, 1e-6, f)
     }
@@ -252,7 +324,14 @@ impl Tower {
         let t_cold = self.t_cold_c(heat_kw, t_wb_c, p_kpa)?;
         let t_hot = t_cold + heat_kw / (self.m_water_kg_s * CP_W);
         if heat_kw <= 0.0 {
-            return Ok(TowerHour { t_cold_c: t_cold, t_hot_c: t_hot, fan_kwh: 0.0, evaporated_m3: 0.0, blowdown_m3: 0.0, water_m3: 0.0 });
+            return Ok(TowerHour {
+                t_cold_c: t_cold,
+                t_hot_c: t_hot,
+                fan_kwh: 0.0,
+                evaporated_m3: 0.0,
+                blowdown_m3: 0.0,
+                water_m3: 0.0,
+            });
         }
         let t_mean = 0.5 * (t_cold + t_hot);
         let hfg = seuif97::tx(t_mean, 1.0, seuif97::OH) - seuif97::tx(t_mean, 0.0, seuif97::OH);
@@ -260,7 +339,14 @@ impl Tower {
         let evap = heat_kw * 3600.0 / hfg / rho;
         let blow = evap / (self.cycles - 1.0);
         let drift = self.drift_fraction * self.m_water_kg_s * 3600.0 / rho;
-        Ok(TowerHour { t_cold_c: t_cold, t_hot_c: t_hot, fan_kwh: self.fan_kw, evaporated_m3: evap, blowdown_m3: blow, water_m3: evap + blow + drift })
+        Ok(TowerHour {
+            t_cold_c: t_cold,
+            t_hot_c: t_hot,
+            fan_kwh: self.fan_kw,
+            evaporated_m3: evap,
+            blowdown_m3: blow,
+            water_m3: evap + blow + drift,
+        })
     }
 }
 
@@ -291,8 +377,10 @@ mod tests {
 
     #[test]
     fn bad_input() {
-        let mut s = TowerSpec::default();
-        s.cycles_of_concentration = 1.0;
+        let s = TowerSpec {
+            cycles_of_concentration: 1.0,
+            ..TowerSpec::default()
+        };
         assert!(s.validate().is_err());
         let t = TowerSpec::default().size(100.0).unwrap();
         assert!(t.run(f64::NAN, 26.0, 101.325).is_err());

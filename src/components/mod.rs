@@ -1,9 +1,9 @@
 //! One physical device each. A component knows its own physics and nothing of the hour loop
 //! or of economics.
 
+pub mod absorption_cycle;
 pub mod boiler;
 pub mod chiller_electric;
-pub mod absorption_cycle;
 pub mod collector;
 pub mod cooling_tower;
 pub mod field;
