@@ -13,6 +13,7 @@
 
 pub mod table;
 
+mod absorption;
 mod collector;
 mod load;
 mod plant;
@@ -57,6 +58,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
     let mut out = Vec::new();
     for area in [
         sun::checks,
+        absorption::checks,
         weather::checks,
         psychro::checks,
         load::checks,

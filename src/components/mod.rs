@@ -1,9 +1,11 @@
 //! One physical device each. A component knows its own physics and nothing of the hour loop
 //! or of economics.
 
+pub mod absorption_cycle;
 pub mod boiler;
 pub mod chiller_electric;
 pub mod collector;
+pub mod cooling_tower;
 pub mod field;
 pub mod hx;
 pub mod pcm;
