@@ -4,7 +4,10 @@
 pub mod boiler;
 pub mod chiller_electric;
 pub mod collector;
+pub mod desiccant_wheel;
+pub mod evap_cooler;
 pub mod field;
+pub mod heat_wheel;
 pub mod hx;
 pub mod pcm;
 pub mod pipe;
