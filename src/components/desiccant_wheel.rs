@@ -330,15 +330,26 @@ mod tests {
     /// = 0.783813 − 0.792235 = −0.008421.
     #[test]
     fn potentials_by_hand() {
-        assert!((f1(30.0, 0.012) - (-0.478916)).abs() < 1e-6, "{}", f1(30.0, 0.012));
-        assert!((f2(30.0, 0.012) - (-0.008421)).abs() < 1e-6, "{}", f2(30.0, 0.012));
+        assert!(
+            (f1(30.0, 0.012) - (-0.478916)).abs() < 1e-6,
+            "{}",
+            f1(30.0, 0.012)
+        );
+        assert!(
+            (f2(30.0, 0.012) - (-0.008421)).abs() < 1e-6,
+            "{}",
+            f2(30.0, 0.012)
+        );
     }
 
     #[test]
     fn intersection_inverts_potentials() {
         for (t, w) in [(30.0, 0.012), (45.0, 0.006), (70.0, 0.014), (5.0, 0.003)] {
             let s = state_from_potentials(f1(t, w), f2(t, w)).unwrap();
-            assert!((s.t_c - t).abs() < 1e-9 && (s.w_kg_kg - w).abs() < 1e-12, "{s:?}");
+            assert!(
+                (s.t_c - t).abs() < 1e-9 && (s.w_kg_kg - w).abs() < 1e-12,
+                "{s:?}"
+            );
         }
     }
 
@@ -350,7 +361,10 @@ mod tests {
         let wh = DesiccantWheel::new(0.05, 0.95).unwrap();
         let (pi, ri) = (air(30.0, 0.012), air(70.0, 0.012));
         let o = wh.run(pi, ri, 1.0, 1.0, P).unwrap();
-        assert!(o.process_out.w_kg_kg < 0.008 && o.process_out.t_c > 45.0, "{o:?}");
+        assert!(
+            o.process_out.w_kg_kg < 0.008 && o.process_out.t_c > 45.0,
+            "{o:?}"
+        );
         let dw = (pi.w_kg_kg - o.process_out.w_kg_kg) + (ri.w_kg_kg - o.regen_out.w_kg_kg);
         let dh = (pi.h_kj_kg() - o.process_out.h_kj_kg()) + (ri.h_kj_kg() - o.regen_out.h_kj_kg());
         assert!(dw.abs() < 1e-15 && dh.abs() < 1e-10);

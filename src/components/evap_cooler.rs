@@ -114,7 +114,11 @@ mod tests {
         let o = EvapCooler::new(1.0).unwrap().run(a, twb, 1.0).unwrap();
         let ws = psychro::saturation_ratio(twb, P).unwrap();
         assert!((o.air.t_c - twb).abs() < 1e-12);
-        assert!((o.air.w_kg_kg - ws).abs() < 1e-9, "{} vs {ws}", o.air.w_kg_kg);
+        assert!(
+            (o.air.w_kg_kg - ws).abs() < 1e-9,
+            "{} vs {ws}",
+            o.air.w_kg_kg
+        );
     }
 
     /// Partial effectiveness: the outlet keeps the inlet's wet-bulb (within the 1e-6 K the

@@ -56,7 +56,13 @@ impl HeatWheel {
     /// Errors: `Input` for non-positive flows. Source: ε-NTU definition, e.g. Incropera &
     /// DeWitt, Fundamentals of Heat and Mass Transfer, §11.4; ASHRAE Handbook—HVAC Systems
     /// and Equipment 2020 ch. 26 (air-to-air energy recovery).
-    pub fn run(&self, hot: Air, m_hot_kg_s: f64, cold: Air, m_cold_kg_s: f64) -> Result<HeatWheelOut> {
+    pub fn run(
+        &self,
+        hot: Air,
+        m_hot_kg_s: f64,
+        cold: Air,
+        m_cold_kg_s: f64,
+    ) -> Result<HeatWheelOut> {
         crate::validate::positive("m_hot_kg_s", m_hot_kg_s, 1e4, "dry-air flow, kg/s")?;
         crate::validate::positive("m_cold_kg_s", m_cold_kg_s, 1e4, "dry-air flow, kg/s")?;
         let c_h = m_hot_kg_s * cp_kj_kgk(hot.w_kg_kg);

@@ -10,6 +10,7 @@
 //! A new heat-driven route (absorption, desiccant, Rankine) implements both calls; the plant
 //! loop, storage, backup and bookkeeping stay as they are.
 
+pub mod desiccant;
 pub mod electric;
 
 use crate::load::LoadHour;
