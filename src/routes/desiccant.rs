@@ -11,7 +11,7 @@
 //! `cycle = "ventilation"`: 100 % outdoor air is supplied and the room's return air
 //! regenerates (process inlet = outdoor, regeneration inlet = room). `cycle = "recirculation"`:
 //! room air is recirculated and outdoor air regenerates. Both are the classic open cycles
-//! (Duffie & Beckman, Solar Engineering of Thermal Processes, 4th ed., §16.x on solar
+//! (Duffie & Beckman, Solar Engineering of Thermal Processes, 4th ed., the chapter on solar
 //! desiccant cooling; ventilation cycle after Pennington's patent, from memory).
 //!
 //! Control each hour with a cooling load (fans run only then; supply flow fixed):
