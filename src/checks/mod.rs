@@ -15,6 +15,7 @@ pub mod table;
 
 mod absorption;
 mod collector;
+mod desiccant;
 mod load;
 mod plant;
 mod psychro;
@@ -65,6 +66,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
         collector::checks,
         storage::checks,
         plant::checks,
+        desiccant::checks,
     ] {
         out.extend(area()?);
     }

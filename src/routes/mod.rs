@@ -11,6 +11,7 @@
 //! loop, storage, backup and bookkeeping stay as they are.
 
 pub mod absorption;
+pub mod desiccant;
 pub mod electric;
 
 use crate::load::LoadHour;
