@@ -6,6 +6,9 @@
 //! Beckman, *Solar Engineering of Thermal Processes*, 4th ed., define the solar fraction of a
 //! thermal system). Seasonal COPs are ratios of sums, never means of hourly ratios.
 
+pub mod economics;
+pub mod energy;
+
 use crate::plant::HourRecord;
 use crate::weather::calendar;
 use serde::Serialize;
