@@ -14,6 +14,7 @@
 pub mod table;
 
 mod collector;
+mod feasibility;
 mod load;
 mod plant;
 mod psychro;
@@ -63,6 +64,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
         collector::checks,
         storage::checks,
         plant::checks,
+        feasibility::checks,
     ] {
         out.extend(area()?);
     }

@@ -160,8 +160,19 @@ impl PvSpec {
         )?;
         match self.cell_temp {
             CellTemp::Faiman { u0, u1 } => {
-                positive("cell_temp.u0", u0, 100.0, "constant heat loss factor, W/m2K")?;
-                in_range("cell_temp.u1", u1, 0.0, 50.0, "wind heat loss factor, W s/m3K")?;
+                positive(
+                    "cell_temp.u0",
+                    u0,
+                    100.0,
+                    "constant heat loss factor, W/m2K",
+                )?;
+                in_range(
+                    "cell_temp.u1",
+                    u1,
+                    0.0,
+                    50.0,
+                    "wind heat loss factor, W s/m3K",
+                )?;
             }
             CellTemp::Noct { noct_c, tau_alpha } => {
                 in_range(
@@ -236,10 +247,7 @@ impl PvSpec {
             CellTemp::Noct { noct_c, tau_alpha } => {
                 let v_array = 0.51 * v;
                 t_amb_c
-                    + g / 800.0
-                        * (noct_c - 20.0)
-                        * (1.0 - self.module_efficiency / tau_alpha)
-                        * 9.5
+                    + g / 800.0 * (noct_c - 20.0) * (1.0 - self.module_efficiency / tau_alpha) * 9.5
                         / (5.7 + 3.8 * v_array)
             }
         }
@@ -385,7 +393,8 @@ mod tests {
         };
         assert!(format!("{}", bad.validate().unwrap_err()).contains("cell_temp.u0"));
         // TOML form with defaults and an unknown key
-        let s: PvSpec = toml::from_str("kwp = 5\ncell_temp = { model = \"noct\", noct_c = 47 }\n").unwrap();
+        let s: PvSpec =
+            toml::from_str("kwp = 5\ncell_temp = { model = \"noct\", noct_c = 47 }\n").unwrap();
         assert_eq!(
             s.cell_temp,
             CellTemp::Noct {
@@ -394,7 +403,10 @@ mod tests {
             }
         );
         s.validate().unwrap();
-        assert!(toml::from_str::<PvSpec>("kwp = 5\ncell_temp = { model = \"noct\", u0 = 1 }\n").is_err());
+        assert!(
+            toml::from_str::<PvSpec>("kwp = 5\ncell_temp = { model = \"noct\", u0 = 1 }\n")
+                .is_err()
+        );
         assert!(toml::from_str::<PvSpec>("kwp = 5\nsize = 1\n").is_err());
     }
 }

@@ -235,7 +235,11 @@ pub fn levelised_cost(
 ) -> Result<Option<f64>> {
     let crf = annuity_factor(rate, years)?;
     if !capex.is_finite() {
-        return Err(Error::input("capex", capex, "must be a finite amount of money"));
+        return Err(Error::input(
+            "capex",
+            capex,
+            "must be a finite amount of money",
+        ));
     }
     let mut pv = capex;
     for (i, c) in annual_costs_by_year.iter().take(years as usize).enumerate() {
@@ -288,7 +292,11 @@ pub struct TouPeriod {
 impl TouPeriod {
     fn covers(&self, h: u32) -> bool {
         let [s, e] = self.hours;
-        if s < e { s <= h && h < e } else { h >= s || h < e }
+        if s < e {
+            s <= h && h < e
+        } else {
+            h >= s || h < e
+        }
     }
 }
 
@@ -529,7 +537,8 @@ pub fn energy_cost(
         month_peak[m] = month_peak[m].max(e);
     }
     let demand = month_peak.iter().sum::<f64>() * spec.demand_charge_per_kw_month;
-    let export_credit = export_kwh.iter().map(|&e| clean(e)).sum::<f64>() * spec.export_price_per_kwh;
+    let export_credit =
+        export_kwh.iter().map(|&e| clean(e)).sum::<f64>() * spec.export_price_per_kwh;
     let fuel = clean(fuel_kwh) * spec.fuel_price_per_kwh;
     let water = clean(water_m3) * spec.water_price_per_m3;
     CostBreakdown {
@@ -868,7 +877,11 @@ pub struct Comparison {
 /// `reference.flows[t] − option.flows[t]`.
 ///
 /// Errors only for an unvalidated spec.
-pub fn compare(spec: &EconomicsSpec, option: &LifeCycle, reference: &LifeCycle) -> Result<Comparison> {
+pub fn compare(
+    spec: &EconomicsSpec,
+    option: &LifeCycle,
+    reference: &LifeCycle,
+) -> Result<Comparison> {
     check_rate(spec.discount_rate)?;
     let n = option.flows.len().min(reference.flows.len());
     let saving = |t: usize| reference.flows[t] - option.flows[t];
@@ -985,10 +998,7 @@ mod tests {
             .unwrap();
         assert!((lc - (10_000.0 * crf + 500.0) / 40.0).abs() < 1e-9);
         assert!((lc - 34.2962).abs() < 1e-3, "{lc}");
-        assert_eq!(
-            levelised_cost(0.06, 20, 10_000.0, &[], 0.0).unwrap(),
-            None
-        );
+        assert_eq!(levelised_cost(0.06, 20, 10_000.0, &[], 0.0).unwrap(), None);
     }
 
     #[test]
@@ -1029,7 +1039,8 @@ mod tests {
         // negative cost function
         let bad_cost = format!("{ok}[costs]\ncollector_per_m2 = -1\n");
         assert!(
-            format!("{}", spec(&bad_cost).validate().unwrap_err()).contains("costs.collector_per_m2")
+            format!("{}", spec(&bad_cost).validate().unwrap_err())
+                .contains("costs.collector_per_m2")
         );
         // unknown key
         assert!(toml::from_str::<EconomicsSpec>(&format!("{ok}interest = 1\n")).is_err());
@@ -1111,7 +1122,17 @@ mod tests {
         assert!((lc.cost_per_mwh_cooling.unwrap() - pv * crf / 100.0).abs() < 1e-9);
 
         // Reference: no capital, bill 6000/yr → saving 4500 − O&M each year.
-        let reference = life_cycle(&s, &Capex::default(), &CostBreakdown { energy: 6000.0, total: 6000.0, ..CostBreakdown::default() }, 100_000.0).unwrap();
+        let reference = life_cycle(
+            &s,
+            &Capex::default(),
+            &CostBreakdown {
+                energy: 6000.0,
+                total: 6000.0,
+                ..CostBreakdown::default()
+            },
+            100_000.0,
+        )
+        .unwrap();
         let c = compare(&s, &lc, &reference).unwrap();
         assert!((c.extra_capex - total).abs() < 1e-9);
         assert!((c.first_year_saving - (4500.0 - om)).abs() < 1e-9);

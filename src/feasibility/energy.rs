@@ -145,7 +145,10 @@ impl EnergySpec {
                 .enumerate()
                 .map(|(i, &e)| pos(e) * f[i % f.len()])
                 .sum::<f64>(),
-            _ => hourly_import_kwh.iter().map(|&e| pos(e)).sum::<f64>() * self.co2_kg_per_kwh_electricity,
+            _ => {
+                hourly_import_kwh.iter().map(|&e| pos(e)).sum::<f64>()
+                    * self.co2_kg_per_kwh_electricity
+            }
         };
         el + pos(fuel_kwh) * self.co2_kg_per_kwh_fuel
     }
@@ -171,7 +174,13 @@ pub struct RefrigerantSpec {
 impl RefrigerantSpec {
     /// Check: charge 0–1e5 kg, leak rate 0–1 per year, GWP 0–30 000. Errors name the key.
     pub fn validate(&self) -> Result<()> {
-        in_range("charge_kg", self.charge_kg, 0.0, 1.0e5, "refrigerant charge, kg")?;
+        in_range(
+            "charge_kg",
+            self.charge_kg,
+            0.0,
+            1.0e5,
+            "refrigerant charge, kg",
+        )?;
         in_range(
             "leak_rate_per_year",
             self.leak_rate_per_year,
@@ -179,7 +188,13 @@ impl RefrigerantSpec {
             1.0,
             "share of the charge lost per year",
         )?;
-        in_range("gwp100", self.gwp100, 0.0, 30_000.0, "100-year GWP, kg CO2e/kg")
+        in_range(
+            "gwp100",
+            self.gwp100,
+            0.0,
+            30_000.0,
+            "100-year GWP, kg CO2e/kg",
+        )
     }
 
     /// CO₂-equivalent of the yearly leakage, kg/yr: `m = m_charge · L · GWP100`.
@@ -323,7 +338,11 @@ pub fn check_hourly(key: &str, values: &[f64]) -> Result<()> {
         ));
     }
     if let Some((i, v)) = values.iter().enumerate().find(|(_, v)| !v.is_finite()) {
-        return Err(Error::input(format!("{key}[{i}]"), v, "must be a finite number"));
+        return Err(Error::input(
+            format!("{key}[{i}]"),
+            v,
+            "must be a finite number",
+        ));
     }
     Ok(())
 }
@@ -397,7 +416,13 @@ mod tests {
         assert!((option.co2_total_kg - 1564.8).abs() < 1e-9);
         assert!((s.co2_saved_kg - 4877.2).abs() < 1e-9);
         // peaks: 30 kW at hour 4000, 12 kW at hour 4001 → 18 kW, 60 %
-        assert_eq!(reference.peak, Some(Peak { hour: 4000, kw: 30.0 }));
+        assert_eq!(
+            reference.peak,
+            Some(Peak {
+                hour: 4000,
+                kw: 30.0
+            })
+        );
         assert_eq!(option.peak.unwrap().hour, 4001);
         assert!((s.peak_reduction_kw - 18.0).abs() < 1e-12);
         assert!((s.peak_reduction_fraction.unwrap() - 0.6).abs() < 1e-12);
