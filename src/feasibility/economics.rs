@@ -133,10 +133,12 @@ pub fn irr(cash_flows: &[f64]) -> Option<f64> {
         let f1 = f(r1);
         if f0 == 0.0 {
             keep(r0);
-        } else if f0.is_finite() && f1.is_finite() && f0 * f1 < 0.0 {
-            if let Ok(r) = crate::num::brent("irr", r0, r1, 1e-12, f) {
-                keep(r);
-            }
+        } else if f0.is_finite()
+            && f1.is_finite()
+            && f0 * f1 < 0.0
+            && let Ok(r) = crate::num::brent("irr", r0, r1, 1e-12, f)
+        {
+            keep(r);
         }
         r0 = r1;
         f0 = f1;
