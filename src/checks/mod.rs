@@ -16,6 +16,7 @@ pub mod table;
 mod absorption;
 mod collector;
 mod desiccant;
+mod feasibility;
 mod load;
 mod plant;
 mod psychro;
@@ -67,6 +68,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
         storage::checks,
         plant::checks,
         desiccant::checks,
+        feasibility::checks,
     ] {
         out.extend(area()?);
     }

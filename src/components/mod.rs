@@ -14,4 +14,5 @@ pub mod hx;
 pub mod pcm;
 pub mod pipe;
 pub mod pump;
+pub mod pv;
 pub mod tank;

@@ -7,6 +7,8 @@
 //! thermal system). Seasonal COPs are ratios of sums, never means of hourly ratios.
 
 pub mod explore;
+pub mod economics;
+pub mod energy;
 
 use crate::plant::HourRecord;
 use crate::weather::calendar;
