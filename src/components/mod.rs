@@ -9,4 +9,6 @@ pub mod hx;
 pub mod pcm;
 pub mod pipe;
 pub mod pump;
+pub mod rankine;
+pub mod vapour_compression;
 pub mod tank;
