@@ -17,6 +17,7 @@ mod collector;
 mod load;
 mod plant;
 mod psychro;
+mod rankine;
 mod storage;
 mod sun;
 mod weather;
@@ -63,6 +64,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
         collector::checks,
         storage::checks,
         plant::checks,
+        rankine::checks,
     ] {
         out.extend(area()?);
     }
