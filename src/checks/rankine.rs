@@ -312,7 +312,11 @@ mod tests {
             let e = row.f64("expected").unwrap();
             let key = (
                 row.str("fluid").unwrap().to_string(),
-                format!("{}_{}", row.str("cycle").unwrap(), row.str("quantity").unwrap()),
+                format!(
+                    "{}_{}",
+                    row.str("cycle").unwrap(),
+                    row.str("quantity").unwrap()
+                ),
             );
             let w = worst.entry(key).or_insert((0.0, 0.0));
             w.0 = w.0.max((v - e).abs());

@@ -129,8 +129,7 @@ impl RankineCycle {
     pub fn solve(&self, t_evap_c: f64, t_cond_c: f64) -> Result<RankinePoint> {
         self.validate()?;
         let f = self.fluid;
-        if !(t_evap_c.is_finite() && t_cond_c.is_finite() && t_evap_c - t_cond_c >= MIN_LIFT_K)
-        {
+        if !(t_evap_c.is_finite() && t_cond_c.is_finite() && t_evap_c - t_cond_c >= MIN_LIFT_K) {
             return Err(Error::OutOfRange {
                 model: "organic Rankine cycle",
                 quantity: "evaporating minus condensing temperature, K",
@@ -321,7 +320,9 @@ impl RankineEngine {
             return Err(Error::input(
                 "t_supply_c",
                 t_supply_c,
-                format!("must be finite and above the sink temperature {t_sink_c} °C (source colder than sink)"),
+                format!(
+                    "must be finite and above the sink temperature {t_sink_c} °C (source colder than sink)"
+                ),
             ));
         }
         let t_min = self.t_supply_min_c(t_sink_c);
@@ -387,7 +388,12 @@ mod tests {
     /// First law per kg: q_in − q_out = w_net (closes to rounding).
     #[test]
     fn first_law_closes() {
-        for f in [Fluid::R245fa, Fluid::NPentane, Fluid::R1233zdE, Fluid::Toluene] {
+        for f in [
+            Fluid::R245fa,
+            Fluid::NPentane,
+            Fluid::R1233zdE,
+            Fluid::Toluene,
+        ] {
             let mut c = cycle(f);
             c.recuperator = 0.6;
             let p = c.solve(100.0, 35.0).unwrap();

@@ -239,9 +239,10 @@ impl VcChiller {
                 format!("must be finite and above the chilled-water temperature {t_chw_c} °C"),
             ));
         }
-        let p = self
-            .cycle
-            .solve(t_chw_c - self.approach_evap_k, t_sink_c + self.approach_cond_k)?;
+        let p = self.cycle.solve(
+            t_chw_c - self.approach_evap_k,
+            t_sink_c + self.approach_cond_k,
+        )?;
         let cop_carnot = (t_chw_c + K0) / (t_sink_c - t_chw_c);
         if p.cop > cop_carnot || p.s_gen_internal_kj_kgk < -1e-9 {
             return Err(Error::Internal(format!(

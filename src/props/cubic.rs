@@ -343,8 +343,16 @@ mod tests {
         let h_virial = p * (b - 2.0 * a / rt + da / R_J_MOLK);
         let s_virial = -p * (a / (rt * t) - da / rt);
         assert!((pt.z - 1.0).abs() < 1e-5);
-        assert!((pt.h_dep_j_mol / h_virial - 1.0).abs() < 1e-4, "{}", pt.h_dep_j_mol);
-        assert!((pt.s_dep_j_molk / s_virial - 1.0).abs() < 1e-4, "{}", pt.s_dep_j_molk);
+        assert!(
+            (pt.h_dep_j_mol / h_virial - 1.0).abs() < 1e-4,
+            "{}",
+            pt.h_dep_j_mol
+        );
+        assert!(
+            (pt.s_dep_j_molk / s_virial - 1.0).abs() < 1e-4,
+            "{}",
+            pt.s_dep_j_molk
+        );
     }
 
     /// Departure enthalpy is consistent with the T-derivative of ln φ:

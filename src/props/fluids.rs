@@ -174,7 +174,7 @@ const CONSTANTS: [Constants; 8] = [
                 -1.178_663_625_113_573_8,
                 0.629_861_183_357_385_7,
                 -0.070_432_843_770_922_78,
-                0.002_098_603_160_442_242_2,
+                0.002_098_603_160_442_242,
             ],
         },
         t_triple_k: 136.34,
@@ -630,7 +630,10 @@ fn check_p(f: Fluid, p_kpa: f64) -> Result<()> {
         Err(out_of_range(
             "pressure, kPa",
             p_kpa,
-            format!("0.001..{hi:.0} kPa for {} (3 × critical pressure)", f.name()),
+            format!(
+                "0.001..{hi:.0} kPa for {} (3 × critical pressure)",
+                f.name()
+            ),
         ))
     }
 }

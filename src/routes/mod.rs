@@ -11,6 +11,7 @@
 //! loop, storage, backup and bookkeeping stay as they are.
 
 pub mod electric;
+pub mod rankine_vc;
 
 use crate::load::LoadHour;
 
