@@ -10,5 +10,5 @@ pub mod pcm;
 pub mod pipe;
 pub mod pump;
 pub mod rankine;
-pub mod vapour_compression;
 pub mod tank;
+pub mod vapour_compression;
