@@ -20,6 +20,7 @@ mod feasibility;
 mod load;
 mod plant;
 mod psychro;
+mod rankine;
 mod storage;
 mod sun;
 mod weather;
@@ -69,6 +70,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
         plant::checks,
         desiccant::checks,
         feasibility::checks,
+        rankine::checks,
     ] {
         out.extend(area()?);
     }

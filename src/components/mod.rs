@@ -15,4 +15,6 @@ pub mod pcm;
 pub mod pipe;
 pub mod pump;
 pub mod pv;
+pub mod rankine;
 pub mod tank;
+pub mod vapour_compression;

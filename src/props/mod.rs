@@ -2,5 +2,7 @@
 //! Property routines know nothing of equipment, time or scenarios.
 
 pub mod libr;
+pub mod cubic;
+pub mod fluids;
 pub mod psychro;
 pub mod water;

@@ -1,0 +1,811 @@
+//! Route `rankine-vc`: a solar organic Rankine engine on the same shaft as the compressor of a
+//! vapour-compression chiller, with an electric motor carrying what the engine cannot.
+//!
+//! Shaft balance each hour: `W_engine + W_motor = W_compressor / η_mech`. The engine is limited
+//! by the driving heat supplied (`W_engine = η_th · heat`, at most its design shaft power); the
+//! motor's electricity carries the rest (`W_motor / η_motor`). Engine shaft beyond what the
+//! compressor needs is curtailed (`surplus = "curtail"`) or drives a generator
+//! (`surplus = "generate"`, electricity `η_gen` × surplus shaft, reported, not netted).
+//!
+//! Heat sink: [`RankineVc::t_sink_c`] — for now a documented rule standing in for the shared
+//! cooling tower: wet sink (cooling tower water) at wet-bulb + `sink_approach_k`, dry sink
+//! (dry cooler) at dry-bulb + `sink_approach_k`, held at or above `t_sink_min_c`. Both cycles
+//! condense against it; the hour reports the heat each rejects so water use can be computed.
+//!
+//! Supply temperature rule (heat request): the store's top temperature clamped to
+//! `[t_supply_min_c, t_supply_max]`, where the minimum is the spec's (default: the engine's
+//! lowest workable supply at the design sink) and the maximum is the supply that reaches the
+//! engine's highest evaporating temperature. Without a store, the design supply. A colder store
+//! is lifted by the boiler to the minimum. With `surplus = "generate"` and a store at least at
+//! the asked supply, the route asks for the engine's full heat (to export electricity); else it
+//! asks only for the heat that drives the compressor.
+//!
+//! Per hour: 2 Rankine flashes + 2 VC flashes per solve (Brent, ~10 iterations of one cubic
+//! each), table look-ups otherwise; `heat_request` and `run` each solve the hour once. The
+//! store-top temperature of `heat_request` is kept for `run` in a small `Mutex` (the only
+//! state; keyed by the hour).
+
+use super::{HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour};
+use crate::components::chiller_electric::ChillerSpec;
+use crate::components::rankine::{EngineOp, RankineCycle, RankineEngine};
+use crate::components::vapour_compression::{ChillerOp, VcChiller, VcCycle};
+use crate::error::{Error, Result};
+use crate::props::fluids::Fluid;
+use crate::validate;
+
+/// What to do with engine shaft power beyond the compressor's need.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Surplus {
+    Curtail,
+    Generate,
+}
+
+/// Heat sink of both condensers.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Sink {
+    /// Cooling-tower water: wet-bulb + approach.
+    Wet,
+    /// Dry cooler: dry-bulb + approach.
+    Dry,
+}
+
+/// What the route cannot cool.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Shortfall {
+    /// Hand it to the baseline electric chiller (its electricity counted).
+    BackupChiller,
+    /// Report it unmet.
+    Unmet,
+}
+
+fn d_engine_fluid() -> String {
+    "R245fa".into()
+}
+fn d_chiller_fluid() -> String {
+    "R134a".into()
+}
+fn d_eta_pump() -> f64 {
+    0.6
+}
+fn d_eta_expander() -> f64 {
+    0.75
+}
+fn d_superheat() -> f64 {
+    5.0
+}
+fn d_dt_water() -> f64 {
+    8.0
+}
+fn d_pinch() -> f64 {
+    5.0
+}
+fn d_approach_engine() -> f64 {
+    10.0
+}
+fn d_eta_comp() -> f64 {
+    0.75
+}
+fn d_subcool() -> f64 {
+    3.0
+}
+fn d_approach_evap() -> f64 {
+    3.0
+}
+fn d_approach_cond() -> f64 {
+    8.0
+}
+fn d_eta_mech() -> f64 {
+    0.95
+}
+fn d_eta_motor() -> f64 {
+    0.93
+}
+fn d_eta_gen() -> f64 {
+    0.9
+}
+fn d_surplus() -> Surplus {
+    Surplus::Curtail
+}
+fn d_sink() -> Sink {
+    Sink::Wet
+}
+fn d_sink_approach() -> f64 {
+    5.0
+}
+fn d_t_supply_design() -> f64 {
+    120.0
+}
+fn d_t_sink_design() -> f64 {
+    29.44
+}
+fn d_t_sink_min() -> f64 {
+    18.0
+}
+fn d_shortfall() -> Shortfall {
+    Shortfall::BackupChiller
+}
+
+/// The route as written in a scenario (`[options.NAME.rankine-vc]`). Defaults are common
+/// practice for small ORC / water-cooled chiller plants (demo values, not product data).
+#[derive(Debug, Clone, serde::Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RankineVcSpec {
+    /// Engine working fluid (default R245fa).
+    #[serde(default = "d_engine_fluid")]
+    pub engine_fluid: String,
+    /// Chiller refrigerant (default R134a).
+    #[serde(default = "d_chiller_fluid")]
+    pub chiller_fluid: String,
+    /// Engine pump isentropic efficiency (default 0.6).
+    #[serde(default = "d_eta_pump")]
+    pub eta_pump: f64,
+    /// Expander isentropic efficiency (default 0.75).
+    #[serde(default = "d_eta_expander")]
+    pub eta_expander: f64,
+    /// Engine superheat, K (default 5).
+    #[serde(default = "d_superheat")]
+    pub engine_superheat_k: f64,
+    /// Recuperator effectiveness, 0 for none (default 0).
+    #[serde(default)]
+    pub recuperator: f64,
+    /// Hot-water drop across the evaporating section, K (default 8).
+    #[serde(default = "d_dt_water")]
+    pub dt_water_evap_k: f64,
+    /// Evaporator pinch, K (default 5).
+    #[serde(default = "d_pinch")]
+    pub pinch_evap_k: f64,
+    /// Engine condensing minus sink temperature, K (default 10).
+    #[serde(default = "d_approach_engine")]
+    pub engine_approach_cond_k: f64,
+    /// Highest engine evaporating temperature, °C (default Tc − 15 K of the fluid).
+    #[serde(default)]
+    pub t_evap_max_c: Option<f64>,
+    /// Compressor isentropic efficiency (default 0.75).
+    #[serde(default = "d_eta_comp")]
+    pub eta_compressor: f64,
+    /// Chiller suction superheat, K (default 5).
+    #[serde(default = "d_superheat")]
+    pub chiller_superheat_k: f64,
+    /// Chiller subcooling, K (default 3).
+    #[serde(default = "d_subcool")]
+    pub subcool_k: f64,
+    /// Chilled water minus evaporating temperature, K (default 3).
+    #[serde(default = "d_approach_evap")]
+    pub approach_evap_k: f64,
+    /// Chiller condensing minus sink temperature, K (default 8).
+    #[serde(default = "d_approach_cond")]
+    pub approach_cond_k: f64,
+    /// Cooling capacity at design, kW (default: the baseline chiller's).
+    #[serde(default)]
+    pub capacity_kw: Option<f64>,
+    /// Chilled-water supply, °C (default: the baseline chiller's).
+    #[serde(default)]
+    pub t_chw_supply_c: Option<f64>,
+    /// Shaft/coupling efficiency between engine or motor and compressor (default 0.95).
+    #[serde(default = "d_eta_mech")]
+    pub eta_mech: f64,
+    /// Motor efficiency (default 0.93).
+    #[serde(default = "d_eta_motor")]
+    pub eta_motor: f64,
+    /// `curtail` or `generate` (default curtail).
+    #[serde(default = "d_surplus")]
+    pub surplus: Surplus,
+    /// Generator efficiency with `surplus = "generate"` (default 0.9).
+    #[serde(default = "d_eta_gen")]
+    pub eta_generator: f64,
+    /// `wet` (cooling tower) or `dry` (dry cooler) (default wet).
+    #[serde(default = "d_sink")]
+    pub sink: Sink,
+    /// Sink water above wet-bulb (wet) or dry-bulb (dry), K (default 5).
+    #[serde(default = "d_sink_approach")]
+    pub sink_approach_k: f64,
+    /// Lowest sink temperature (tower/fan control), °C (default 18).
+    #[serde(default = "d_t_sink_min")]
+    pub t_sink_min_c: f64,
+    /// Hot-water supply at design, °C (default 120).
+    #[serde(default = "d_t_supply_design")]
+    pub t_supply_design_c: f64,
+    /// Sink temperature at design, °C (default 29.44 = 85 °F, AHRI water-cooled rating).
+    #[serde(default = "d_t_sink_design")]
+    pub t_sink_design_c: f64,
+    /// Lowest supply asked, °C (default: engine minimum at the design sink).
+    #[serde(default)]
+    pub t_supply_min_c: Option<f64>,
+    /// `backup-chiller` or `unmet` (default backup-chiller).
+    #[serde(default = "d_shortfall")]
+    pub shortfall: Shortfall,
+}
+
+fn fluid(key: &str, name: &str) -> Result<Fluid> {
+    Fluid::from_name(name).map_err(|e| match e {
+        Error::Input { value, allowed, .. } => Error::Input {
+            file: String::new(),
+            key: key.into(),
+            value,
+            allowed,
+        },
+        o => o,
+    })
+}
+
+fn eff(key: &str, v: f64, meaning: &str) -> Result<()> {
+    if v.is_finite() && v > 0.0 && v <= 1.0 {
+        Ok(())
+    } else {
+        Err(Error::input(
+            key,
+            v,
+            format!("must be > 0 and at most 1 ({meaning})"),
+        ))
+    }
+}
+
+impl RankineVcSpec {
+    /// Check every field (keys relative to the section): known fluids, efficiencies in (0, 1],
+    /// temperatures and approaches in their ranges; the cycles themselves are checked at build.
+    pub fn validate(&self) -> Result<()> {
+        fluid("engine_fluid", &self.engine_fluid)?;
+        fluid("chiller_fluid", &self.chiller_fluid)?;
+        for (k, v, m) in [
+            ("eta_pump", self.eta_pump, "pump isentropic efficiency"),
+            (
+                "eta_expander",
+                self.eta_expander,
+                "expander isentropic efficiency",
+            ),
+            (
+                "eta_compressor",
+                self.eta_compressor,
+                "compressor isentropic efficiency",
+            ),
+            ("eta_mech", self.eta_mech, "shaft coupling efficiency"),
+            ("eta_motor", self.eta_motor, "motor efficiency"),
+            ("eta_generator", self.eta_generator, "generator efficiency"),
+        ] {
+            eff(k, v, m)?;
+        }
+        validate::in_range(
+            "sink_approach_k",
+            self.sink_approach_k,
+            0.0,
+            20.0,
+            "sink above wet- or dry-bulb, K",
+        )?;
+        validate::in_range(
+            "t_sink_min_c",
+            self.t_sink_min_c,
+            5.0,
+            35.0,
+            "lowest sink temperature, °C",
+        )?;
+        validate::in_range(
+            "t_sink_design_c",
+            self.t_sink_design_c,
+            10.0,
+            50.0,
+            "sink temperature at design, °C",
+        )?;
+        validate::in_range(
+            "t_supply_design_c",
+            self.t_supply_design_c,
+            50.0,
+            250.0,
+            "hot-water supply at design, °C",
+        )?;
+        if self.t_supply_design_c <= self.t_sink_design_c {
+            return Err(Error::input(
+                "t_supply_design_c",
+                self.t_supply_design_c,
+                format!(
+                    "must be above t_sink_design_c = {} °C (source colder than sink)",
+                    self.t_sink_design_c
+                ),
+            ));
+        }
+        if let Some(c) = self.capacity_kw {
+            validate::positive("capacity_kw", c, 1e5, "design cooling capacity, kW")?;
+        }
+        if let Some(t) = self.t_chw_supply_c {
+            validate::in_range("t_chw_supply_c", t, 0.0, 20.0, "chilled-water supply, °C")?;
+        }
+        Ok(())
+    }
+}
+
+/// The built route.
+#[derive(Debug)]
+pub struct RankineVc {
+    pub engine: RankineEngine,
+    pub chiller: VcChiller,
+    pub baseline: ChillerSpec,
+    pub t_chw_c: f64,
+    pub eta_mech: f64,
+    pub eta_motor: f64,
+    pub eta_generator: f64,
+    pub surplus: Surplus,
+    pub sink: Sink,
+    pub sink_approach_k: f64,
+    pub t_sink_min_c: f64,
+    pub t_supply_design_c: f64,
+    pub t_supply_min_c: f64,
+    pub shortfall: Shortfall,
+    /// Engine design shaft power, kW (drives the compressor at design capacity).
+    pub engine_shaft_design_kw: f64,
+    /// The store-top temperature seen by the last `heat_request`, with its hour: `run` is not
+    /// given it, and needs it to run the engine at the supply it asked for.
+    last_top: std::sync::Mutex<Option<(usize, Option<f64>)>>,
+}
+
+/// Build the route: size the chiller at its design capacity (design sink, chilled water) and
+/// the engine to drive its compressor there, `W_engine = Q / (COP · η_mech)`.
+///
+/// Errors: `Input` for bad keys (named relative to the section), or design temperatures that
+/// leave the engine inoperable (supply below its minimum at the design sink).
+pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> {
+    spec.validate()?;
+    let ef = fluid("engine_fluid", &spec.engine_fluid)?;
+    let cf = fluid("chiller_fluid", &spec.chiller_fluid)?;
+    let t_evap_max = spec.t_evap_max_c.unwrap_or(ef.t_crit_c() - 15.0);
+    let engine = RankineEngine {
+        cycle: RankineCycle {
+            fluid: ef,
+            eta_pump: spec.eta_pump,
+            eta_expander: spec.eta_expander,
+            superheat_k: spec.engine_superheat_k,
+            recuperator: spec.recuperator,
+        },
+        dt_water_evap_k: spec.dt_water_evap_k,
+        pinch_evap_k: spec.pinch_evap_k,
+        approach_cond_k: spec.engine_approach_cond_k,
+        t_evap_max_c: t_evap_max,
+    };
+    engine.validate()?;
+    let t_chw = spec.t_chw_supply_c.unwrap_or(baseline.t_chw_supply_c);
+    let cap = spec.capacity_kw.unwrap_or(baseline.capacity_kw);
+    let chiller = VcChiller::size(
+        VcCycle {
+            fluid: cf,
+            eta_compressor: spec.eta_compressor,
+            superheat_k: spec.chiller_superheat_k,
+            subcool_k: spec.subcool_k,
+        },
+        spec.approach_evap_k,
+        spec.approach_cond_k,
+        cap,
+        t_chw,
+        spec.t_sink_design_c,
+    )?;
+    let design = chiller.operate(t_chw, spec.t_sink_design_c)?;
+    let t_min_engine = engine.t_supply_min_c(spec.t_sink_design_c);
+    let t_supply_min = spec.t_supply_min_c.unwrap_or(t_min_engine);
+    if t_supply_min < t_min_engine || t_supply_min > engine.t_supply_max_c() {
+        return Err(Error::input(
+            "t_supply_min_c",
+            t_supply_min,
+            format!(
+                "must be between {t_min_engine:.1} °C (the engine's minimum at the design sink) and {:.1} °C",
+                engine.t_supply_max_c()
+            ),
+        ));
+    }
+    if spec.t_supply_design_c < t_min_engine {
+        return Err(Error::input(
+            "t_supply_design_c",
+            spec.t_supply_design_c,
+            format!(
+                "must be at least {t_min_engine:.1} °C for the engine to run at the design sink"
+            ),
+        ));
+    }
+    engine.operate(spec.t_supply_design_c, spec.t_sink_design_c)?;
+    Ok(RankineVc {
+        engine,
+        chiller,
+        baseline: baseline.clone(),
+        t_chw_c: t_chw,
+        eta_mech: spec.eta_mech,
+        eta_motor: spec.eta_motor,
+        eta_generator: spec.eta_generator,
+        surplus: spec.surplus,
+        sink: spec.sink,
+        sink_approach_k: spec.sink_approach_k,
+        t_sink_min_c: spec.t_sink_min_c,
+        t_supply_design_c: spec.t_supply_design_c,
+        t_supply_min_c: t_supply_min,
+        shortfall: spec.shortfall,
+        engine_shaft_design_kw: cap / design.point.cop / spec.eta_mech,
+        last_top: std::sync::Mutex::new(None),
+    })
+}
+
+/// Why the route did what it did.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum RankineVcReason {
+    Ok,
+    NoLoad,
+    /// Load above the chiller's capacity at this hour's temperatures.
+    CapacityLimit,
+    /// The engine could not run (supply too cold for the sink, or no heat): motor only.
+    EngineOff,
+    /// The engine carried only part of the shaft; the motor the rest.
+    MotorAssist,
+}
+
+impl RankineVcReason {
+    /// Stable code.
+    pub fn as_str(&self) -> &'static str {
+        match self {
+            Self::Ok => "ok",
+            Self::NoLoad => "no-load",
+            Self::CapacityLimit => "capacity-limit",
+            Self::EngineOff => "engine-off",
+            Self::MotorAssist => "motor-assist",
+        }
+    }
+}
+
+/// One hour of the route with its extra outputs (energies in kWh over the hour).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RankineVcHour {
+    pub t_sink_c: f64,
+    pub t_supply_c: f64,
+    pub t_return_c: f64,
+    /// Engine thermal efficiency (0 when off).
+    pub engine_efficiency: f64,
+    /// Engine shaft work from the sun's (and boiler's) heat, kWh.
+    pub shaft_from_heat_kwh: f64,
+    pub motor_electricity_kwh: f64,
+    pub chiller_cop: f64,
+    pub cooling_kwh: f64,
+    pub unmet_kwh: f64,
+    /// Baseline chiller's electricity for the shortfall, kWh.
+    pub backup_electricity_kwh: f64,
+    /// Driving heat used by the engine, kWh.
+    pub heat_used_kwh: f64,
+    /// Cooling per unit of driving heat (0 when no heat).
+    pub cop_thermal_combined: f64,
+    pub engine_heat_rejected_kwh: f64,
+    pub chiller_heat_rejected_kwh: f64,
+    /// Exported electricity from surplus shaft, kWh (generate mode).
+    pub surplus_electricity_kwh: f64,
+    /// Heat the route wants for this hour, kWh.
+    pub heat_wanted_kwh: f64,
+    pub reason: RankineVcReason,
+}
+
+impl RankineVc {
+    /// Condenser sink temperature this hour, °C: wet `t_wb + approach`, dry `t_db + approach`,
+    /// at least `t_sink_min_c`. The one place to point at a shared cooling-tower model.
+    pub fn t_sink_c(&self, c: &HourConditions) -> f64 {
+        let t = match self.sink {
+            Sink::Wet => c.t_wb_c + self.sink_approach_k,
+            Sink::Dry => c.t_db_c + self.sink_approach_k,
+        };
+        if t.is_finite() {
+            t.max(self.t_sink_min_c)
+        } else {
+            self.t_sink_min_c
+        }
+    }
+
+    fn t_supply(&self, t_store_top_c: Option<f64>) -> f64 {
+        match t_store_top_c {
+            Some(t) if t.is_finite() => {
+                t.max(self.t_supply_min_c).min(self.engine.t_supply_max_c())
+            }
+            _ => self.t_supply_design_c,
+        }
+    }
+
+    /// Solve the hour. `heat` is `None` to compute only what the route wants (heat request);
+    /// with `Some`, the engine runs on that heat.
+    ///
+    /// Never panics; a cycle the models refuse (temperatures outside a fluid's range) turns
+    /// the engine off or hands the load to the shortfall rule.
+    pub fn solve_hour(
+        &self,
+        c: &HourConditions,
+        t_store_top_c: Option<f64>,
+        heat: Option<HeatSupplied>,
+    ) -> RankineVcHour {
+        let t_sink = self.t_sink_c(c);
+        let t_supply = self.t_supply(t_store_top_c);
+        let load = c.load.cooling_kw();
+        let load = if load.is_finite() { load.max(0.0) } else { 0.0 };
+        let mut h = RankineVcHour {
+            t_sink_c: t_sink,
+            t_supply_c: t_supply,
+            t_return_c: t_supply,
+            engine_efficiency: 0.0,
+            shaft_from_heat_kwh: 0.0,
+            motor_electricity_kwh: 0.0,
+            chiller_cop: 0.0,
+            cooling_kwh: 0.0,
+            unmet_kwh: 0.0,
+            backup_electricity_kwh: 0.0,
+            heat_used_kwh: 0.0,
+            cop_thermal_combined: 0.0,
+            engine_heat_rejected_kwh: 0.0,
+            chiller_heat_rejected_kwh: 0.0,
+            surplus_electricity_kwh: 0.0,
+            heat_wanted_kwh: 0.0,
+            reason: RankineVcReason::NoLoad,
+        };
+        let engine: Option<EngineOp> = self.engine.operate(t_supply, t_sink).ok();
+        let chiller: Option<ChillerOp> = if load > 0.0 {
+            self.chiller.operate(self.t_chw_c, t_sink).ok()
+        } else {
+            None
+        };
+        let (cooling, w_shaft) = match &chiller {
+            Some(op) => {
+                let q = load.min(op.capacity_kw);
+                (q, q / op.point.cop / self.eta_mech)
+            }
+            None => (0.0, 0.0),
+        };
+        let generate = self.surplus == Surplus::Generate
+            && t_store_top_c.is_some_and(|t| t >= t_supply - 1e-9);
+        if let Some(e) = &engine {
+            let eta = e.point.eta_th;
+            let shaft_wanted = if generate {
+                self.engine_shaft_design_kw
+            } else {
+                w_shaft.min(self.engine_shaft_design_kw)
+            };
+            h.heat_wanted_kwh = shaft_wanted / eta;
+            h.t_return_c = e.t_return_c;
+            h.engine_efficiency = eta;
+        }
+        let Some(given) = heat else {
+            return h;
+        };
+        if load <= 0.0 && !generate {
+            return h;
+        }
+        let q_heat = (given.solar_kwh + given.backup_kwh).max(0.0);
+        if let Some(e) = &engine {
+            let eta = e.point.eta_th;
+            let shaft = (q_heat * eta).min(self.engine_shaft_design_kw);
+            let used_for_comp = shaft.min(w_shaft);
+            let surplus = shaft - used_for_comp;
+            let (shaft_run, heat_run) = match self.surplus {
+                Surplus::Generate => (shaft, shaft / eta),
+                Surplus::Curtail => (used_for_comp, used_for_comp / eta),
+            };
+            h.shaft_from_heat_kwh = shaft_run;
+            h.heat_used_kwh = heat_run;
+            h.engine_heat_rejected_kwh = heat_run - shaft_run;
+            if self.surplus == Surplus::Generate {
+                h.surplus_electricity_kwh = surplus * self.eta_generator;
+            }
+            h.motor_electricity_kwh = (w_shaft - used_for_comp) / self.eta_motor;
+        } else {
+            h.motor_electricity_kwh = w_shaft / self.eta_motor;
+        }
+        if let Some(op) = &chiller {
+            h.chiller_cop = op.point.cop;
+            h.cooling_kwh = cooling;
+            // Condenser heat = cooling + compressor work; coupling losses leave as heat too.
+            h.chiller_heat_rejected_kwh = cooling * (1.0 + 1.0 / op.point.cop);
+        }
+        let short = load - h.cooling_kwh;
+        if short > 1e-9 {
+            match self.shortfall {
+                Shortfall::Unmet => h.unmet_kwh = short,
+                Shortfall::BackupChiller => {
+                    let b = self.baseline.run_hour(short, t_sink, self.t_chw_c);
+                    h.cooling_kwh += b.cooling_kwh;
+                    h.unmet_kwh = b.unmet_kwh;
+                    h.backup_electricity_kwh = b.electricity_kwh;
+                    h.chiller_heat_rejected_kwh += b.heat_rejected_kwh;
+                }
+            }
+        }
+        if h.heat_used_kwh > 0.0 {
+            h.cop_thermal_combined = h.cooling_kwh / h.heat_used_kwh;
+        }
+        h.reason = if load <= 0.0 {
+            RankineVcReason::NoLoad
+        } else if short > 1e-9 {
+            RankineVcReason::CapacityLimit
+        } else if h.shaft_from_heat_kwh <= 0.0 {
+            RankineVcReason::EngineOff
+        } else if h.motor_electricity_kwh > 1e-9 {
+            RankineVcReason::MotorAssist
+        } else {
+            RankineVcReason::Ok
+        };
+        h
+    }
+}
+
+impl Route for RankineVc {
+    fn kind(&self) -> &'static str {
+        "rankine-vc"
+    }
+
+    fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest> {
+        if let Ok(mut g) = self.last_top.lock() {
+            *g = Some((c.hour, t_store_top_c));
+        }
+        let h = self.solve_hour(c, t_store_top_c, None);
+        (h.heat_wanted_kwh > 0.0).then_some(HeatRequest {
+            heat_kwh: h.heat_wanted_kwh,
+            t_supply_c: h.t_supply_c,
+            t_return_c: h.t_return_c,
+        })
+    }
+
+    fn run(&self, c: &HourConditions, heat: Option<HeatSupplied>) -> RouteHour {
+        // The store's top is not passed to `run`: take the one `heat_request` saw this hour
+        // (design supply when there was none).
+        let top = match self.last_top.lock() {
+            Ok(g) => match *g {
+                Some((hour, t)) if hour == c.hour => t,
+                _ => None,
+            },
+            Err(_) => None,
+        };
+        let h = self.solve_hour(c, top, Some(heat.unwrap_or_default()));
+        let elec = h.motor_electricity_kwh + h.backup_electricity_kwh;
+        RouteHour {
+            cooling_kwh: h.cooling_kwh,
+            unmet_kwh: h.unmet_kwh,
+            electricity_kwh: elec,
+            heat_rejected_kwh: h.engine_heat_rejected_kwh + h.chiller_heat_rejected_kwh,
+            cop_thermal: (h.heat_used_kwh > 0.0).then_some(h.cop_thermal_combined),
+            cop_electric: (elec > 0.0).then(|| h.cooling_kwh / elec),
+            reason: match h.reason {
+                RankineVcReason::NoLoad => Reason::NoLoad,
+                RankineVcReason::CapacityLimit => Reason::CapacityLimit,
+                _ => Reason::Ok,
+            },
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::components::chiller_electric::Condenser;
+    use crate::load::LoadHour;
+
+    fn spec() -> RankineVcSpec {
+        toml::from_str("").unwrap()
+    }
+
+    fn base() -> ChillerSpec {
+        ChillerSpec::typical(Condenser::WaterCooled, 100.0)
+    }
+
+    fn hour(load_kw: f64, t_wb: f64) -> HourConditions {
+        HourConditions {
+            hour: 4000,
+            t_db_c: t_wb + 8.0,
+            w_kg_kg: 0.015,
+            t_wb_c: t_wb,
+            p_kpa: 101.325,
+            load: LoadHour {
+                sensible_kw: load_kw,
+                latent_kw: 0.0,
+                ..LoadHour::default()
+            },
+        }
+    }
+
+    /// Hot store, full sun: the engine alone drives the compressor; the heat asked is the
+    /// compressor shaft over η_th; cooling / heat = η_th · η_mech · COP (shaft balance).
+    #[test]
+    fn hot_store_engine_carries_shaft() {
+        let r = build(&spec(), &base()).unwrap();
+        let c = hour(60.0, 24.0);
+        let req = r.heat_request(&c, Some(130.0)).unwrap();
+        assert!((req.t_supply_c - 130.0).abs() < 1e-12);
+        assert!(req.t_return_c < req.t_supply_c);
+        let h = r.solve_hour(
+            &c,
+            Some(130.0),
+            Some(HeatSupplied {
+                solar_kwh: req.heat_kwh,
+                backup_kwh: 0.0,
+            }),
+        );
+        assert_eq!(h.reason, RankineVcReason::Ok);
+        assert!(h.motor_electricity_kwh.abs() < 1e-9);
+        assert!((h.cooling_kwh - 60.0).abs() < 1e-9);
+        let expect = h.engine_efficiency * r.eta_mech * h.chiller_cop;
+        assert!((h.cop_thermal_combined - expect).abs() < 1e-9);
+        // Trade range 0.3–0.7 (common practice).
+        assert!(
+            h.cop_thermal_combined > 0.3 && h.cop_thermal_combined < 0.7,
+            "{}",
+            h.cop_thermal_combined
+        );
+        let rh = r.run(
+            &c,
+            Some(HeatSupplied {
+                solar_kwh: req.heat_kwh,
+                backup_kwh: 0.0,
+            }),
+        );
+        assert!((rh.cooling_kwh - 60.0).abs() < 1e-9);
+        // First law of the whole route: rejected = cooling + heat in + motor input − export.
+        let balance = h.heat_used_kwh + h.cooling_kwh + h.motor_electricity_kwh * r.eta_motor
+            - h.engine_heat_rejected_kwh
+            - h.chiller_heat_rejected_kwh;
+        // Coupling losses (1 − η_mech) of the shaft leave as heat not yet counted.
+        let w_shaft = h.cooling_kwh / h.chiller_cop / r.eta_mech;
+        assert!(
+            (balance - w_shaft * (1.0 - r.eta_mech)).abs() < 1e-6,
+            "{balance}"
+        );
+    }
+
+    /// Half the heat: the motor carries the other half of the shaft.
+    #[test]
+    fn motor_carries_the_rest() {
+        let r = build(&spec(), &base()).unwrap();
+        let c = hour(60.0, 24.0);
+        let req = r.heat_request(&c, Some(130.0)).unwrap();
+        let h = r.solve_hour(
+            &c,
+            Some(130.0),
+            Some(HeatSupplied {
+                solar_kwh: 0.5 * req.heat_kwh,
+                backup_kwh: 0.0,
+            }),
+        );
+        assert_eq!(h.reason, RankineVcReason::MotorAssist);
+        let w_shaft = 60.0 / h.chiller_cop / r.eta_mech;
+        assert!((h.shaft_from_heat_kwh - 0.5 * w_shaft).abs() < 1e-9);
+        assert!((h.motor_electricity_kwh - 0.5 * w_shaft / r.eta_motor).abs() < 1e-9);
+        let none = r.solve_hour(&c, Some(130.0), Some(HeatSupplied::default()));
+        assert_eq!(none.reason, RankineVcReason::EngineOff);
+    }
+
+    /// Cold store: ask at the minimum supply; no load: no request; surplus generation.
+    #[test]
+    fn supply_rule_and_surplus() {
+        let r = build(&spec(), &base()).unwrap();
+        let c = hour(60.0, 24.0);
+        let req = r.heat_request(&c, Some(40.0)).unwrap();
+        assert!((req.t_supply_c - r.t_supply_min_c).abs() < 1e-12);
+        assert!(r.heat_request(&hour(0.0, 24.0), Some(130.0)).is_none());
+        let mut s = spec();
+        s.surplus = Surplus::Generate;
+        let g = build(&s, &base()).unwrap();
+        let req = g.heat_request(&c, Some(130.0)).unwrap();
+        let h = g.solve_hour(
+            &c,
+            Some(130.0),
+            Some(HeatSupplied {
+                solar_kwh: req.heat_kwh,
+                backup_kwh: 0.0,
+            }),
+        );
+        assert!(h.surplus_electricity_kwh > 0.0);
+        assert!((h.shaft_from_heat_kwh - g.engine_shaft_design_kw).abs() < 1e-9);
+    }
+
+    #[test]
+    fn bad_spec_errors() {
+        let mut s = spec();
+        s.engine_fluid = "water".into();
+        let e = build(&s, &base()).unwrap_err().to_string();
+        assert!(e.contains("engine_fluid") && e.contains("R245fa"), "{e}");
+        let mut s = spec();
+        s.eta_expander = 1.2;
+        assert!(build(&s, &base()).is_err());
+        let mut s = spec();
+        s.eta_mech = 0.0;
+        assert!(build(&s, &base()).is_err());
+        let mut s = spec();
+        s.t_supply_design_c = 25.0; // colder than the design sink
+        assert!(build(&s, &base()).is_err());
+        assert!(toml::from_str::<RankineVcSpec>("colour = 1").is_err());
+    }
+}
