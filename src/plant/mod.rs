@@ -253,7 +253,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 backup_kwh: (r.heat_kwh - solar_kwh).max(0.0),
             }
         });
-        let rh: RouteHour = opt.route.run(c, heat);
+        let rh: RouteHour = opt.route.run(c, t_top0, heat);
         if let Some(h) = heat {
             rec.heat_to_route_kwh = h.solar_kwh + h.backup_kwh;
             rec.route_solar_kwh = h.solar_kwh;
@@ -324,5 +324,5 @@ pub fn simulate_all(opts: &[PlantOption], y: &YearInputs) -> Vec<Vec<HourRecord>
 
 /// Route results for a bare route with no store (used by checks).
 pub fn route_only(route: &dyn Route, c: &HourConditions) -> RouteHour {
-    route.run(c, None)
+    route.run(c, None, None)
 }

@@ -400,7 +400,7 @@ impl Route for Absorption {
         })
     }
 
-    fn run(&self, c: &HourConditions, heat: Option<HeatSupplied>) -> RouteHour {
+    fn run(&self, c: &HourConditions, t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
         let load = c.load.cooling_kw();
         if load <= 0.0 {
             return RouteHour {
@@ -411,12 +411,12 @@ impl Route for Absorption {
                 cop_thermal: None,
                 cop_electric: None,
                 reason: Reason::NoLoad,
+                ..RouteHour::default()
             };
         }
-        // The store temperature is not passed to `run`; the request was made at the supply
-        // the store or boiler gives, so the same solve with the boiler rule gives the machine
-        // state; the heat actually supplied scales it.
-        let h = self.solve_hour(c, None);
+        // The same solve as the request (same store temperature); the heat actually supplied
+        // scales it.
+        let h = self.solve_hour(c, t_store_top_c);
         let supplied = heat.map_or(0.0, |q| q.solar_kwh + q.backup_kwh);
         let frac = if h.heat_kwh > 0.0 {
             (supplied / h.heat_kwh).clamp(0.0, 1.0)
@@ -437,6 +437,21 @@ impl Route for Absorption {
             rejected += q + e;
         }
         let unmet = (load - delivered).max(0.0);
+        // Tower water for all heat rejected this hour (machine and backup chiller share it).
+        let water_m3 = if rejected > 0.0 {
+            self.tower.run(rejected, c.t_wb_c, c.p_kpa).map_or(h.tower_water_m3 * frac, |t| t.water_m3)
+        } else {
+            0.0
+        };
+        let reason = match h.reason {
+            AbsorptionReason::Ok | AbsorptionReason::NoLoad if unmet > 1e-6 => Reason::CapacityLimit,
+            AbsorptionReason::Ok | AbsorptionReason::NoLoad if frac < 1.0 - 1e-9 && h.heat_kwh > 0.0 => Reason::HeatShort,
+            AbsorptionReason::Ok | AbsorptionReason::NoLoad => Reason::Ok,
+            AbsorptionReason::CapacityLimit => Reason::CapacityLimit,
+            AbsorptionReason::SupplyTooCold => Reason::SupplyTooCold,
+            AbsorptionReason::CrystallisationMargin => Reason::CrystallisationMargin,
+            AbsorptionReason::NoSolution => Reason::NoSolution,
+        };
         RouteHour {
             cooling_kwh: delivered,
             unmet_kwh: unmet,
@@ -444,11 +459,18 @@ impl Route for Absorption {
             heat_rejected_kwh: rejected,
             cop_thermal: (supplied > 0.0 && cooling > 0.0).then(|| cooling / supplied),
             cop_electric: (elec > 0.0).then(|| delivered / elec),
-            reason: if unmet > 1e-6 {
-                Reason::CapacityLimit
-            } else {
-                Reason::Ok
-            },
+            reason,
+            water_m3,
+            backup_cooling_kwh: delivered - cooling,
+            t_drive_c: (h.t_gen_in_c > 0.0).then_some(h.t_gen_in_c),
+            t_sink_c: Some(h.t_cw_in_c),
+            detail: [
+                ("t_return_c", h.t_return_c),
+                ("cryst_margin_k", h.cryst_margin_k),
+                ("", 0.0),
+                ("", 0.0),
+            ],
+            ..RouteHour::default()
         }
     }
 }
@@ -489,6 +511,7 @@ mod tests {
         assert!(h.cop_thermal > 0.6 && h.cop_thermal < 0.85, "{h:?}");
         let out = r.run(
             &c,
+            Some(90.0),
             Some(HeatSupplied {
                 solar_kwh: req.heat_kwh,
                 backup_kwh: 0.0,
@@ -498,6 +521,7 @@ mod tests {
         // Half the heat: half the cooling (electric-free boiler backup leaves the rest unmet).
         let half = r.run(
             &c,
+            Some(90.0),
             Some(HeatSupplied {
                 solar_kwh: 0.5 * req.heat_kwh,
                 backup_kwh: 0.0,
@@ -513,7 +537,7 @@ mod tests {
         let r = build(s, &ChillerSpec::typical(Condenser::WaterCooled, 35.0)).unwrap();
         let c = hour(30.0, 24.0);
         assert!(r.heat_request(&c, Some(60.0)).is_none());
-        let out = r.run(&c, None);
+        let out = r.run(&c, None, None);
         assert!((out.cooling_kwh - 30.0).abs() < 1e-6 && out.electricity_kwh > 0.0);
     }
 

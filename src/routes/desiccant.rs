@@ -455,6 +455,7 @@ pub fn build(spec: &DesiccantSpec, baseline: &ChillerSpec) -> Result<Desiccant> 
             Unmet::BackupChiller => Some(Electric {
                 chiller: baseline.clone(),
                 tower_approach_k: spec.tower_approach_k,
+                tower: None,
             }),
             Unmet::Report => None,
         },
@@ -794,7 +795,7 @@ impl Desiccant {
             (Some(b), true) => {
                 let h = b
                     .chiller
-                    .run_hour(short, b.t_condenser_in_c(c), b.chiller.t_chw_supply_c);
+                    .run_hour(short, b.t_condenser_in_c(c, short), b.chiller.t_chw_supply_c);
                 (
                     h.cooling_kwh,
                     h.electricity_kwh,
@@ -903,7 +904,7 @@ impl Desiccant {
             Some(b) => {
                 let h = b
                     .chiller
-                    .run_hour(load, b.t_condenser_in_c(c), b.chiller.t_chw_supply_c);
+                    .run_hour(load, b.t_condenser_in_c(c, load), b.chiller.t_chw_supply_c);
                 RouteHour {
                     cooling_kwh: h.cooling_kwh,
                     unmet_kwh: h.unmet_kwh,
@@ -913,6 +914,7 @@ impl Desiccant {
                     cop_electric: (h.electricity_kwh > 0.0)
                         .then(|| h.cooling_kwh / h.electricity_kwh),
                     reason: Reason::CapacityLimit,
+                    ..RouteHour::default()
                 }
             }
             None => RouteHour {
@@ -923,6 +925,7 @@ impl Desiccant {
                 cop_thermal: None,
                 cop_electric: None,
                 reason: Reason::CapacityLimit,
+                ..RouteHour::default()
             },
         }
     }
@@ -944,7 +947,7 @@ impl Route for Desiccant {
         })
     }
 
-    fn run(&self, c: &HourConditions, heat: Option<HeatSupplied>) -> RouteHour {
+    fn run(&self, c: &HourConditions, _t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
         let heat = Some(heat.unwrap_or_default());
         let h = match self.solve_hour(c, heat) {
             Ok(h) => h,
@@ -959,6 +962,7 @@ impl Route for Desiccant {
                 cop_thermal: None,
                 cop_electric: None,
                 reason: Reason::NoLoad,
+                ..RouteHour::default()
             };
         }
         let cooling = h.unit_cooling_kwh() + h.backup_cooling_kwh;
@@ -970,11 +974,27 @@ impl Route for Desiccant {
             heat_rejected_kwh: h.exhaust_heat_kwh.max(0.0) + h.backup_rejected_kwh,
             cop_thermal: h.cop_thermal(),
             cop_electric: (el > 0.0).then(|| cooling / el),
-            reason: if h.unmet_kwh > 1e-9 {
-                Reason::CapacityLimit
-            } else {
-                Reason::Ok
+            reason: match h.reason {
+                DesiccantReason::Ok if h.unmet_kwh > 1e-9 => Reason::CapacityLimit,
+                DesiccantReason::Ok => Reason::Ok,
+                DesiccantReason::NoLoad => Reason::NoLoad,
+                DesiccantReason::EvaporativeOnly => Reason::EvaporativeOnly,
+                DesiccantReason::WheelOutOfRange => Reason::WheelOutOfRange,
+                DesiccantReason::LatentLimit => Reason::LatentLimit,
+                DesiccantReason::HeatShort => Reason::HeatShort,
+                DesiccantReason::SensibleLimit => Reason::SensibleLimit,
             },
+            water_m3: h.water_kg / 1000.0,
+            backup_cooling_kwh: h.backup_cooling_kwh,
+            t_drive_c: h.t_regen_c,
+            t_sink_c: Some(c.t_db_c),
+            detail: [
+                ("t_supply_c", h.t_supply_c),
+                ("w_supply_g_kg", 1000.0 * h.w_supply_kg_kg),
+                ("sensible_kwh", h.sensible_kwh),
+                ("latent_kwh", h.latent_kwh),
+            ],
+            ..RouteHour::default()
         }
     }
 }
@@ -1041,12 +1061,13 @@ mod tests {
         assert!(h.backup_cooling_kwh > 0.0 && h.unmet_kwh < 1e-9);
         let rh = u.run(
             &c,
+            None,
             u.heat_request(&c, None).map(|r| HeatSupplied {
                 solar_kwh: r.heat_kwh,
                 backup_kwh: 0.0,
             }),
         );
-        assert!((rh.cooling_kwh - 28.0).abs() < 1e-9 && rh.reason == Reason::Ok);
+        assert!((rh.cooling_kwh - 28.0).abs() < 1e-9 && rh.reason == Reason::LatentLimit);
     }
 
     /// Outdoor air drier than the supply target: wheel stopped, no heat asked, evaporative
@@ -1080,7 +1101,7 @@ mod tests {
         assert_eq!(half.reason, DesiccantReason::HeatShort);
         assert!(half.regen_heat_kwh <= 0.5 * full.regen_heat_kwh * (1.0 + 1e-6));
         assert!(half.w_supply_kg_kg > full.w_supply_kg_kg);
-        let none = u.run(&c, None);
+        let none = u.run(&c, None, None);
         assert!(none.cop_thermal.is_none());
     }
 
@@ -1103,7 +1124,7 @@ mod tests {
         let h = u.solve_hour(&hour(30.0, 0.012, 0.0, 0.0), None).unwrap();
         assert_eq!(h.reason, DesiccantReason::NoLoad);
         assert_eq!(
-            u.run(&hour(30.0, 0.012, 0.0, 0.0), None).reason,
+            u.run(&hour(30.0, 0.012, 0.0, 0.0), None, None).reason,
             Reason::NoLoad
         );
         let base = ChillerSpec::typical(Condenser::WaterCooled, 200.0);

@@ -4,7 +4,7 @@
 //! 1. [`Route::heat_request`] — given the hour's conditions and the temperature at the top of
 //!    the option's store, how much driving heat the route wants, at what supply temperature,
 //!    returning at what temperature. Routes that need no heat (the electric chiller) say `None`.
-//! 2. [`Route::run`] — given the heat actually supplied (solar from the store and backup from
+//! 2. [`Route::run`] — given the same store temperature and the heat actually supplied (solar from the store and backup from
 //!    the boiler), what the route delivered, used and rejected, and why it fell short.
 //!
 //! A new heat-driven route (absorption, desiccant, Rankine) implements both calls; the plant
@@ -54,16 +54,38 @@ pub struct HeatSupplied {
     pub backup_kwh: f64,
 }
 
-/// Why a route did less than asked, or that it did all.
+/// Why a route did less than asked, or what it did instead. One list for every route, so
+/// the hourly CSV has one vocabulary.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum Reason {
-    /// Met the whole load.
+    /// Met the whole load as intended.
     Ok,
     /// No cooling load this hour.
     NoLoad,
     /// Load above what the machine can deliver at this hour's conditions.
     CapacityLimit,
+    /// Absorption: store below the lowest workable supply; the backup chiller carried the hour.
+    SupplyTooCold,
+    /// Absorption: strong solution within the crystallisation margin (hour flagged).
+    CrystallisationMargin,
+    /// A machine's solve found no operating point (no refrigerant flow, no convergence):
+    /// machine off, backup carried what it could.
+    NoSolution,
+    /// Desiccant: outdoor air dry enough, wheel stopped, evaporative cooling only.
+    EvaporativeOnly,
+    /// Desiccant: process air outside the wheel model's validity; backup carried the hour.
+    WheelOutOfRange,
+    /// Desiccant: too humid even at the highest regeneration temperature.
+    LatentLimit,
+    /// Less driving heat arrived than was asked.
+    HeatShort,
+    /// Desiccant: supply air not cold enough with the coolers at design.
+    SensibleLimit,
+    /// Rankine: no heat or supply too cold, the motor drove the compressor alone.
+    EngineOff,
+    /// Rankine: engine and motor shared the shaft.
+    MotorAssist,
 }
 
 impl Reason {
@@ -73,6 +95,16 @@ impl Reason {
             Reason::Ok => "ok",
             Reason::NoLoad => "no-load",
             Reason::CapacityLimit => "capacity-limit",
+            Reason::SupplyTooCold => "supply-too-cold",
+            Reason::CrystallisationMargin => "crystallisation-margin",
+            Reason::NoSolution => "no-solution",
+            Reason::EvaporativeOnly => "evaporative-only",
+            Reason::WheelOutOfRange => "wheel-out-of-range",
+            Reason::LatentLimit => "latent-limit",
+            Reason::HeatShort => "heat-short",
+            Reason::SensibleLimit => "sensible-limit",
+            Reason::EngineOff => "engine-off",
+            Reason::MotorAssist => "motor-assist",
         }
     }
 }
@@ -93,6 +125,41 @@ pub struct RouteHour {
     /// Cooling per unit of electricity; `None` when no electricity was used.
     pub cop_electric: Option<f64>,
     pub reason: Reason,
+    /// Water used (cooling tower make-up, evaporative coolers), m³.
+    pub water_m3: f64,
+    /// Of the cooling, what a backup electric chiller delivered, kWh.
+    pub backup_cooling_kwh: f64,
+    /// Driving temperature the machine ran at (generator, regeneration or engine supply), °C.
+    pub t_drive_c: Option<f64>,
+    /// Heat-rejection sink the machine saw (cooling water or air entering), °C.
+    pub t_sink_c: Option<f64>,
+    /// Electricity from the option's own PV array used this hour, kWh (pv-electric).
+    pub pv_used_kwh: f64,
+    /// PV electricity exported, kWh.
+    pub pv_export_kwh: f64,
+    /// Up to four route-specific figures (name with unit, value), empty names unused.
+    pub detail: [(&'static str, f64); 4],
+}
+
+impl Default for RouteHour {
+    fn default() -> Self {
+        RouteHour {
+            cooling_kwh: 0.0,
+            unmet_kwh: 0.0,
+            electricity_kwh: 0.0,
+            heat_rejected_kwh: 0.0,
+            cop_thermal: None,
+            cop_electric: None,
+            reason: Reason::NoLoad,
+            water_m3: 0.0,
+            backup_cooling_kwh: 0.0,
+            t_drive_c: None,
+            t_sink_c: None,
+            pv_used_kwh: 0.0,
+            pv_export_kwh: 0.0,
+            detail: [("", 0.0); 4],
+        }
+    }
 }
 
 /// A cooling route stepped by the plant loop.
@@ -102,6 +169,8 @@ pub trait Route: Send + Sync {
     /// Heat wanted from the store this hour (see module docs). `t_store_top_c` is `None` for
     /// an option without a store.
     fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest>;
-    /// Run the hour with the heat supplied (`None` when the route asked for none).
-    fn run(&self, c: &HourConditions, heat: Option<HeatSupplied>) -> RouteHour;
+    /// Run the hour with the heat supplied (`None` when the route asked for none). The store
+    /// temperature is the one `heat_request` saw, so a route can re-solve the same operating
+    /// point deterministically.
+    fn run(&self, c: &HourConditions, t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour;
 }

@@ -21,9 +21,8 @@
 //! asks only for the heat that drives the compressor.
 //!
 //! Per hour: 2 Rankine flashes + 2 VC flashes per solve (Brent, ~10 iterations of one cubic
-//! each), table look-ups otherwise; `heat_request` and `run` each solve the hour once. The
-//! store-top temperature of `heat_request` is kept for `run` in a small `Mutex` (the only
-//! state; keyed by the hour).
+//! each), table look-ups otherwise; `heat_request` and `run` each solve the hour once, from
+//! the same store-top temperature (the route keeps no state between calls).
 
 use super::{HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour};
 use crate::components::chiller_electric::ChillerSpec;
@@ -334,9 +333,9 @@ pub struct RankineVc {
     pub shortfall: Shortfall,
     /// Engine design shaft power, kW (drives the compressor at design capacity).
     pub engine_shaft_design_kw: f64,
-    /// The store-top temperature seen by the last `heat_request`, with its hour: `run` is not
-    /// given it, and needs it to run the engine at the supply it asked for.
-    last_top: std::sync::Mutex<Option<(usize, Option<f64>)>>,
+    /// The wet cooling tower both cycles reject heat through (`sink = "wet"`), sized at the
+    /// design heat rejected; it gives the hour's water use and fan electricity.
+    pub tower: Option<crate::components::cooling_tower::Tower>,
 }
 
 /// Build the route: size the chiller at its design capacity (design sink, chilled water) and
@@ -400,8 +399,20 @@ pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> 
             ),
         ));
     }
-    engine.operate(spec.t_supply_design_c, spec.t_sink_design_c)?;
+    let engine_design = engine.operate(spec.t_supply_design_c, spec.t_sink_design_c)?;
+    // Design heat rejected: chiller condenser (cooling + compressor work) and engine
+    // condenser (engine heat in − shaft work) at design.
+    let shaft = cap / design.point.cop / spec.eta_mech;
+    let eta_e = engine_design.point.eta_th.max(1e-3);
+    let tower = match spec.sink {
+        Sink::Wet => Some(
+            crate::components::cooling_tower::TowerSpec::default()
+                .size(cap + cap / design.point.cop + shaft * (1.0 / eta_e - 1.0))?,
+        ),
+        Sink::Dry => None,
+    };
     Ok(RankineVc {
+        tower,
         engine,
         chiller,
         baseline: baseline.clone(),
@@ -417,7 +428,6 @@ pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> 
         t_supply_min_c: t_supply_min,
         shortfall: spec.shortfall,
         engine_shaft_design_kw: cap / design.point.cop / spec.eta_mech,
-        last_top: std::sync::Mutex::new(None),
     })
 }
 
@@ -629,9 +639,6 @@ impl Route for RankineVc {
     }
 
     fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest> {
-        if let Ok(mut g) = self.last_top.lock() {
-            *g = Some((c.hour, t_store_top_c));
-        }
         let h = self.solve_hour(c, t_store_top_c, None);
         (h.heat_wanted_kwh > 0.0).then_some(HeatRequest {
             heat_kwh: h.heat_wanted_kwh,
@@ -640,30 +647,40 @@ impl Route for RankineVc {
         })
     }
 
-    fn run(&self, c: &HourConditions, heat: Option<HeatSupplied>) -> RouteHour {
-        // The store's top is not passed to `run`: take the one `heat_request` saw this hour
-        // (design supply when there was none).
-        let top = match self.last_top.lock() {
-            Ok(g) => match *g {
-                Some((hour, t)) if hour == c.hour => t,
-                _ => None,
-            },
-            Err(_) => None,
-        };
-        let h = self.solve_hour(c, top, Some(heat.unwrap_or_default()));
+    fn run(&self, c: &HourConditions, t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
+        let h = self.solve_hour(c, t_store_top_c, Some(heat.unwrap_or_default()));
         let elec = h.motor_electricity_kwh + h.backup_electricity_kwh;
+        let rejected = h.engine_heat_rejected_kwh + h.chiller_heat_rejected_kwh;
+        let tower = self
+            .tower
+            .as_ref()
+            .filter(|_| rejected > 0.0)
+            .and_then(|t| t.run(rejected, c.t_wb_c, c.p_kpa).ok());
+        let elec = elec + tower.map_or(0.0, |t| t.fan_kwh);
         RouteHour {
             cooling_kwh: h.cooling_kwh,
             unmet_kwh: h.unmet_kwh,
             electricity_kwh: elec,
-            heat_rejected_kwh: h.engine_heat_rejected_kwh + h.chiller_heat_rejected_kwh,
+            heat_rejected_kwh: rejected,
             cop_thermal: (h.heat_used_kwh > 0.0).then_some(h.cop_thermal_combined),
             cop_electric: (elec > 0.0).then(|| h.cooling_kwh / elec),
             reason: match h.reason {
                 RankineVcReason::NoLoad => Reason::NoLoad,
                 RankineVcReason::CapacityLimit => Reason::CapacityLimit,
-                _ => Reason::Ok,
+                RankineVcReason::Ok => Reason::Ok,
+                RankineVcReason::EngineOff => Reason::EngineOff,
+                RankineVcReason::MotorAssist => Reason::MotorAssist,
             },
+            water_m3: tower.map_or(0.0, |t| t.water_m3),
+            t_drive_c: (h.heat_used_kwh > 0.0).then_some(h.t_supply_c),
+            t_sink_c: Some(h.t_sink_c),
+            detail: [
+                ("engine_efficiency", h.engine_efficiency),
+                ("shaft_from_heat_kwh", h.shaft_from_heat_kwh),
+                ("motor_kwh", h.motor_electricity_kwh),
+                ("chiller_cop", h.chiller_cop),
+            ],
+            ..RouteHour::default()
         }
     }
 }
@@ -727,6 +744,7 @@ mod tests {
         );
         let rh = r.run(
             &c,
+            Some(130.0),
             Some(HeatSupplied {
                 solar_kwh: req.heat_kwh,
                 backup_kwh: 0.0,

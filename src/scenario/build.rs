@@ -308,10 +308,10 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
     for (name, o) in &s.options {
         let prefix = format!("options.{name}");
         let route: Box<dyn Route> = match o.route {
-            RouteKind::Electric => Box::new(Electric {
-                chiller: s.baseline.clone(),
-                tower_approach_k: TOWER_APPROACH_K,
-            }),
+            RouteKind::Electric => Box::new(
+                Electric::new(s.baseline.clone(), TOWER_APPROACH_K)
+                    .map_err(|e| e.within(&file, "baseline"))?,
+            ),
         };
         let (solar, gross_m2, store_m3) = match (&o.field, &o.storage) {
             (Some(f), Some(st)) => {
