@@ -29,7 +29,9 @@ pub struct Study {
 /// The names of the annual figures, as in the JSON summary.
 pub fn figure_names() -> Vec<String> {
     match serde_json::to_value(Totals::default()) {
-        Ok(serde_json::Value::Object(m)) => m.keys().cloned().collect(),
+        Ok(serde_json::Value::Object(m)) => {
+            m.iter().filter(|(_, v)| !v.is_object()).map(|(k, _)| k.clone()).collect()
+        }
         _ => Vec::new(),
     }
 }
@@ -97,7 +99,7 @@ impl Study {
         e.loaded().map(|_| ())
     }
 
-    /// Run one design. With `only`, just that option is simulated.
+    /// Run one design. With `only`, just that option (and the reference) is simulated.
     pub fn evaluate(&self, edits: &[Edit], only: Option<&str>) -> Result<Evaluation> {
         let mut e = self.base.clone();
         for (k, v) in edits {
@@ -123,9 +125,11 @@ impl Study {
                     format!("{hint}options: {}", names.join(", ")),
                 ));
             }
-            built.retain(|b| b.plant.name == name);
+            // The reference runs too, so figures against it (savings, NPV) are defined.
+            let reference = l.scenario.reference.clone();
+            built.retain(|b| b.plant.name == name || b.plant.name == reference);
         }
-        Ok(build::run(&l, p, &built))
+        build::run(&l, p, &built)
     }
 
     /// One annual figure of one option for a design.

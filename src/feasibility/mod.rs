@@ -7,6 +7,7 @@
 //! thermal system). Seasonal COPs are ratios of sums, never means of hourly ratios.
 
 pub mod explore;
+pub mod metrics;
 pub mod economics;
 pub mod energy;
 
@@ -46,6 +47,35 @@ pub struct Totals {
     pub pump_hours: f64,
     /// Largest hourly store balance error relative to the energy stored.
     pub max_balance_error_rel: f64,
+    /// Water used, m³.
+    pub water_m3: f64,
+    /// Cooling carried by a backup electric chiller, kWh.
+    pub backup_cooling_kwh: f64,
+    /// PV electricity used on site and exported, kWh.
+    pub pv_used_kwh: f64,
+    pub pv_export_kwh: f64,
+    /// Electricity from the grid (all electricity less own PV used), kWh.
+    pub grid_kwh: f64,
+    /// Hours by reason code (only codes that occurred).
+    pub reason_hours: std::collections::BTreeMap<&'static str, u32>,
+    // Year-only figures (`metrics.rs`; `None` in months and where undefined).
+    pub primary_energy_kwh: Option<f64>,
+    pub primary_energy_ratio: Option<f64>,
+    pub primary_energy_savings_fraction: Option<f64>,
+    pub co2_kg: Option<f64>,
+    pub co2_savings_fraction: Option<f64>,
+    pub peak_electric_kw: Option<f64>,
+    pub peak_hour: Option<f64>,
+    pub peak_reduction_kw: Option<f64>,
+    pub water_m3_per_mwh_cooling: Option<f64>,
+    pub capex: Option<f64>,
+    pub annual_energy_cost: Option<f64>,
+    pub annualised_cost: Option<f64>,
+    pub lcoc_per_mwh: Option<f64>,
+    pub npv_vs_reference: Option<f64>,
+    pub simple_payback_years: Option<f64>,
+    pub discounted_payback_years: Option<f64>,
+    pub irr: Option<f64>,
 }
 
 fn ratio(num: f64, den: f64) -> Option<f64> {
@@ -75,6 +105,12 @@ impl Totals {
             t.unmet_hours += u32::from(r.unmet_kwh > 1e-6);
             t.pump_hours += r.pump_hours;
             t.max_balance_error_rel = t.max_balance_error_rel.max(r.balance_error_rel);
+            t.water_m3 += r.water_m3;
+            t.backup_cooling_kwh += r.backup_cooling_kwh;
+            t.pv_used_kwh += r.pv_used_kwh;
+            t.pv_export_kwh += r.pv_export_kwh;
+            t.grid_kwh += r.grid_kwh;
+            *t.reason_hours.entry(r.reason.as_str()).or_insert(0) += 1;
         }
         t.cop_thermal = ratio(t.cooling_kwh, t.heat_to_route_kwh);
         t.cop_electric = ratio(t.cooling_kwh, t.electricity_kwh);

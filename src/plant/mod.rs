@@ -271,6 +271,14 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         rec.cop_thermal = rh.cop_thermal;
         rec.cop_electric = rh.cop_electric;
         rec.reason = rh.reason;
+        rec.water_m3 = rh.water_m3;
+        rec.backup_cooling_kwh = rh.backup_cooling_kwh;
+        rec.t_drive_c = rh.t_drive_c;
+        rec.t_sink_c = rh.t_sink_c;
+        rec.pv_used_kwh = rh.pv_used_kwh;
+        rec.pv_export_kwh = rh.pv_export_kwh;
+        rec.grid_kwh = rec.electricity_kwh - rh.pv_used_kwh;
+        rec.detail = rh.detail;
         out.push(rec);
     }
     out

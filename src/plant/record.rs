@@ -50,6 +50,21 @@ pub struct HourRecord {
     /// The field would have gained heat but the store was at its maximum.
     pub stagnation: bool,
     pub reason: Reason,
+    /// Water used (cooling-tower make-up, evaporative coolers), m³.
+    pub water_m3: f64,
+    /// Cooling a backup electric chiller delivered, kWh (part of `cooling_kwh`).
+    pub backup_cooling_kwh: f64,
+    /// Driving temperature the machine ran at, °C, and the heat-rejection sink it saw.
+    pub t_drive_c: Option<f64>,
+    pub t_sink_c: Option<f64>,
+    /// PV electricity used on site and exported, kWh (pv-electric).
+    pub pv_used_kwh: f64,
+    pub pv_export_kwh: f64,
+    /// Electricity taken from the grid: `electricity_kwh − pv_used_kwh` (negative when the
+    /// option's PV also serves the building's other load), kWh.
+    pub grid_kwh: f64,
+    /// Route-specific figures (name with unit, value).
+    pub detail: [(&'static str, f64); 4],
 }
 
 impl Default for HourRecord {
@@ -83,6 +98,14 @@ impl Default for HourRecord {
             pump_hours: 0.0,
             stagnation: false,
             reason: Reason::NoLoad,
+            water_m3: 0.0,
+            backup_cooling_kwh: 0.0,
+            t_drive_c: None,
+            t_sink_c: None,
+            pv_used_kwh: 0.0,
+            pv_export_kwh: 0.0,
+            grid_kwh: 0.0,
+            detail: [("", 0.0); 4],
         }
     }
 }

@@ -13,6 +13,7 @@
 pub mod absorption;
 pub mod desiccant;
 pub mod electric;
+pub mod pv_electric;
 pub mod rankine_vc;
 
 use crate::load::LoadHour;

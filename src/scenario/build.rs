@@ -300,6 +300,65 @@ pub struct BuiltOption {
     pub store_m3: Option<f64>,
 }
 
+fn missing(key: &str, route: RouteKind) -> Error {
+    Error::input(
+        key,
+        "(missing)",
+        format!("route = \"{}\" needs an [options.NAME.{key}] section", route.as_str()),
+    )
+}
+
+/// The cooling route of one option, sized from its section (keys relative to the option).
+fn build_route(s: &Scenario, _name: &str, o: &OptionSection, p: &Prepared) -> Result<Box<dyn Route>> {
+    let base = &s.baseline;
+    Ok(match o.route {
+        RouteKind::Electric => Box::new(
+            Electric::new(base.clone(), TOWER_APPROACH_K).map_err(|e| e.within("", "baseline"))?,
+        ),
+        RouteKind::Absorption => {
+            let spec = o.absorption.clone().ok_or_else(|| missing("absorption", o.route))?;
+            Box::new(crate::routes::absorption::build(spec, base).map_err(|e| e.within("", "absorption"))?)
+        }
+        RouteKind::Desiccant => {
+            let mut spec = o.desiccant.clone().ok_or_else(|| missing("desiccant", o.route))?;
+            // The room humidity the air handler must hold is the building's set-point.
+            if let Some(b) = &s.load.model {
+                let p_site = psychro::pressure_at_elevation_kpa(s.site.elevation_m);
+                spec.w_room_kg_kg = psychro::ratio_from_rh(b.t_cool_setpoint_c, b.rh_setpoint_pct, p_site)?;
+            }
+            Box::new(crate::routes::desiccant::build(&spec, base).map_err(|e| e.within("", "desiccant"))?)
+        }
+        RouteKind::RankineVc => {
+            let spec = o.rankine_vc.as_ref().ok_or_else(|| missing("rankine_vc", o.route))?;
+            Box::new(crate::routes::rankine_vc::build(spec, base).map_err(|e| e.within("", "rankine_vc"))?)
+        }
+        RouteKind::PvElectric => {
+            let pv = o.pv.as_ref().ok_or_else(|| missing("pv", o.route))?;
+            pv.array.validate().map_err(|e| e.within("", "pv.array"))?;
+            let fixed = Plane { tilt_deg: pv.tilt_deg, azimuth_deg: pv.azimuth_deg };
+            let pv_ac_kwh = p
+                .weather
+                .hours
+                .iter()
+                .zip(&p.sun)
+                .map(|(h, sun)| {
+                    let (plane, aoi) = track(pv.tracking, fixed, sun);
+                    let g = plane_irradiance(pv.sky_model, plane, aoi, sun, h.ghi_w_m2, h.dni_w_m2, h.dhi_w_m2, s.site.ground_albedo);
+                    // Beam through the glass by the one-parameter IAM (ASHRAE form).
+                    let k = if aoi < 90.0 { (1.0 - pv.iam_b0 * (1.0 / aoi.to_radians().cos() - 1.0)).clamp(0.0, 1.0) } else { 0.0 };
+                    let poa_eff = g.beam_w_m2 * k + g.diffuse_w_m2();
+                    // Wind at 1 m/s when the weather gives none (common practice for still air).
+                    pv.array.ac_power_kw(poa_eff, h.t_db_c, h.wind_m_s.unwrap_or(1.0))
+                })
+                .collect();
+            Box::new(crate::routes::pv_electric::PvElectric {
+                chiller: Electric::new(base.clone(), TOWER_APPROACH_K).map_err(|e| e.within("", "baseline"))?,
+                pv_ac_kwh,
+            })
+        }
+    })
+}
+
 /// Size each option's plant from its section.
 pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
     let s = &l.scenario;
@@ -307,12 +366,7 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
     let mut out = Vec::with_capacity(s.options.len());
     for (name, o) in &s.options {
         let prefix = format!("options.{name}");
-        let route: Box<dyn Route> = match o.route {
-            RouteKind::Electric => Box::new(
-                Electric::new(s.baseline.clone(), TOWER_APPROACH_K)
-                    .map_err(|e| e.within(&file, "baseline"))?,
-            ),
-        };
+        let route = build_route(s, name, o, p).map_err(|e| e.within(&file, &prefix))?;
         let (solar, gross_m2, store_m3) = match (&o.field, &o.storage) {
             (Some(f), Some(st)) => {
                 let (loop_, gross, m3) =
@@ -454,7 +508,7 @@ fn solar_loop(
 }
 
 /// Run every option of a prepared scenario.
-pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Evaluation {
+pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Result<Evaluation> {
     let y = YearInputs {
         conditions: &p.conditions,
         ghi_w_m2: &p.ghi_w_m2,
@@ -474,7 +528,7 @@ pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Evaluation {
             )
         })
         .collect();
-    Evaluation {
+    let mut ev = Evaluation {
         scenario: l.scenario.name.clone(),
         reference: l.scenario.reference.clone(),
         options,
@@ -486,14 +540,18 @@ pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Evaluation {
             None => p.weather.origin.clone(),
         },
         load_origin: p.load_origin.clone(),
-    }
+    };
+    // Figures against the reference need every option; a subset (one option of a sweep) gets
+    // what it can: its own energy and cost, no comparison.
+    crate::feasibility::metrics::apply(&l.scenario, &mut ev)?;
+    Ok(ev)
 }
 
 /// Prepare, build and run a loaded scenario.
 pub fn evaluate(l: &Loaded) -> Result<Evaluation> {
     let p = prepare(l)?;
     let built = build_options(l, &p)?;
-    Ok(run(l, &p, &built))
+    run(l, &p, &built)
 }
 
 /// Monthly weather summary of a prepared scenario, with the irradiation on each option's

@@ -40,6 +40,10 @@ pub fn check(s: &Scenario, file: &str) -> Result<()> {
     for (name, o) in &s.options {
         w(option(s, o), &format!("options.{name}"))?;
     }
+    if let Some(e) = &s.economics {
+        w(e.validate(), "economics")?;
+    }
+    w(s.energy.validate(), "energy")?;
     if let Some(u) = &s.uncertainty {
         for (i, inp) in u.inputs.iter().enumerate() {
             let k = format!("uncertainty.inputs[{i}]");
@@ -274,6 +278,54 @@ fn option(s: &Scenario, o: &OptionSection) -> Result<()> {
         1.1,
         "heat out per fuel in (HHV)",
     )?;
+    // Each route reads its own section; a section for another route is a slip worth naming.
+    let sections = [
+        ("absorption", o.absorption.is_some(), RouteKind::Absorption),
+        ("desiccant", o.desiccant.is_some(), RouteKind::Desiccant),
+        ("rankine_vc", o.rankine_vc.is_some(), RouteKind::RankineVc),
+        ("pv", o.pv.is_some(), RouteKind::PvElectric),
+    ];
+    for (key, present, kind) in sections {
+        if present && o.route != kind {
+            return Err(Error::input(
+                key,
+                "(section given)",
+                format!("belongs to route = \"{}\", but this option has route = \"{}\"", kind.as_str(), o.route.as_str()),
+            ));
+        }
+        if !present && o.route == kind {
+            return Err(Error::input(
+                key,
+                "(missing)",
+                format!("route = \"{}\" needs an [options.NAME.{key}] section", kind.as_str()),
+            ));
+        }
+    }
+    if o.route.is_heat_driven() && (o.field.is_none() || o.storage.is_none()) {
+        return Err(Error::input(
+            "field",
+            "(missing)",
+            format!("route = \"{}\" is driven by solar heat: it needs [options.NAME.field] and [options.NAME.storage]", o.route.as_str()),
+        ));
+    }
+    if let Some(a) = &o.absorption {
+        a.validate().map_err(|e| e.within("", "absorption"))?;
+    }
+    if let Some(d) = &o.desiccant {
+        d.validate().map_err(|e| e.within("", "desiccant"))?;
+    }
+    if let Some(r) = &o.rankine_vc {
+        r.validate().map_err(|e| e.within("", "rankine_vc"))?;
+    }
+    if let Some(pv) = &o.pv {
+        in_range("pv.tilt_deg", pv.tilt_deg, 0.0, 90.0, "PV tilt from horizontal, degrees")?;
+        in_range("pv.azimuth_deg", pv.azimuth_deg, 0.0, 360.0, "degrees clockwise from north")?;
+        in_range("pv.iam_b0", pv.iam_b0, 0.0, 0.5, "one-parameter beam IAM of the module glass")?;
+        pv.array.validate().map_err(|e| e.within("", "pv.array"))?;
+    }
+    if let Some(r) = &o.refrigerant {
+        r.validate().map_err(|e| e.within("", "refrigerant"))?;
+    }
     match (&o.field, &o.storage) {
         (Some(f), Some(st)) => {
             field(s, f).map_err(|e| e.within("", "field"))?;

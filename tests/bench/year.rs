@@ -22,7 +22,7 @@ fn year(c: &mut Criterion) {
         let p = build::prepare(&l).expect("demo prepares");
         let built = build::build_options(&l, &p).expect("demo builds");
         c.bench_function(&format!("plant/{demo}"), |b| {
-            b.iter(|| black_box(build::run(&l, &p, &built)))
+            b.iter(|| black_box(build::run(&l, &p, &built).expect("demo runs")))
         });
     }
 }
