@@ -75,6 +75,8 @@ fn evaluate_demo_prints_table_and_writes_files() {
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let out = String::from_utf8_lossy(&o.stdout);
     for s in [
+        "NPV vs ref",
+        "PE savings %",
         "grid-chiller",
         "grid-chiller-solar-dhw",
         "solar fraction %",
@@ -90,20 +92,43 @@ fn evaluate_demo_prints_table_and_writes_files() {
     assert!(header.starts_with(
         "option,route,hour_of_year,month,day,hour,t_amb_c,ghi_w_m2,poa_w_m2,load_kwh,cooling_kwh"
     ));
-    assert_eq!(lines.count(), 2 * 8760, "one row per hour and option");
+    let n_rows = lines.count();
     let v: serde_json::Value =
         serde_json::from_str(&std::fs::read_to_string(&json).unwrap()).unwrap();
     assert_eq!(v["scenario"], "Port Meridian clinic (demo)");
     let opts = v["options"].as_array().unwrap();
-    assert_eq!(opts.len(), 2);
+    assert!(opts.len() >= 6, "each route in the demo");
+    assert_eq!(n_rows, opts.len() * 8760, "one row per hour and option");
     for key in [
         "cooling_kwh",
         "solar_fraction",
         "electricity_kwh",
         "backup_heat_kwh",
         "stagnation_hours",
+        "primary_energy_kwh",
+        "primary_energy_savings_fraction",
+        "co2_kg",
+        "water_m3",
+        "peak_electric_kw",
+        "capex",
+        "annualised_cost",
+        "lcoc_per_mwh",
+        "npv_vs_reference",
+        "simple_payback_years",
+        "discounted_payback_years",
+        "irr",
     ] {
         assert!(opts[1]["annual"].get(key).is_some(), "annual.{key}");
+    }
+    let routes: Vec<&str> = opts.iter().map(|o| o["route"].as_str().unwrap()).collect();
+    for r in [
+        "electric",
+        "absorption",
+        "desiccant",
+        "rankine-vc",
+        "pv-electric",
+    ] {
+        assert!(routes.contains(&r), "the demo has a {r} option");
     }
     assert_eq!(opts[1]["monthly"].as_array().unwrap().len(), 12);
     // No partial files left beside the outputs.

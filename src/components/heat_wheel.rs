@@ -67,7 +67,17 @@ impl HeatWheel {
         crate::validate::positive("m_cold_kg_s", m_cold_kg_s, 1e4, "dry-air flow, kg/s")?;
         let c_h = m_hot_kg_s * cp_kj_kgk(hot.w_kg_kg);
         let c_c = m_cold_kg_s * cp_kj_kgk(cold.w_kg_kg);
-        let q = (self.eps * c_h.min(c_c) * (hot.t_c - cold.t_c)).max(0.0);
+        let mut q = (self.eps * c_h.min(c_c) * (hot.t_c - cold.t_c)).max(0.0);
+        // Condensation on the wheel is not modelled: the hot stream is cooled no lower than
+        // its dew point (at standard pressure; the pressure effect on the dew point is a few
+        // hundredths of a kelvin per 100 m of elevation). Conservative: a real wheel would
+        // transfer some latent heat as well.
+        if hot.w_kg_kg > 0.0 {
+            let pw = crate::props::psychro::vapour_pressure_from_ratio(hot.w_kg_kg, 101.325);
+            if let Ok(t_dp) = crate::props::psychro::dew_point_from_vapour_pressure(pw) {
+                q = q.min(((hot.t_c - t_dp) * c_h).max(0.0));
+            }
+        }
         Ok(HeatWheelOut {
             hot_out: Air {
                 t_c: hot.t_c - q / c_h,

@@ -29,9 +29,11 @@ pub struct Study {
 /// The names of the annual figures, as in the JSON summary.
 pub fn figure_names() -> Vec<String> {
     match serde_json::to_value(Totals::default()) {
-        Ok(serde_json::Value::Object(m)) => {
-            m.iter().filter(|(_, v)| !v.is_object()).map(|(k, _)| k.clone()).collect()
-        }
+        Ok(serde_json::Value::Object(m)) => m
+            .iter()
+            .filter(|(_, v)| !v.is_object())
+            .map(|(k, _)| k.clone())
+            .collect(),
         _ => Vec::new(),
     }
 }

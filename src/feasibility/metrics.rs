@@ -25,10 +25,14 @@ pub struct OptionSizes {
 /// rejected (water-cooled plants), a boiler at the peak backup heat, PV at its kWp.
 pub fn sizes_of(s: &Scenario, o: &OptionResult) -> Sizes {
     let sec = &s.options[&o.option];
-    let peak = |f: &dyn Fn(&crate::plant::HourRecord) -> f64| o.hours.iter().map(f).fold(0.0, f64::max);
+    let peak =
+        |f: &dyn Fn(&crate::plant::HourRecord) -> f64| o.hours.iter().map(f).fold(0.0, f64::max);
     let heat_driven = sec.route.is_heat_driven();
     let wet = sec.route.is_heat_driven()
-        || matches!(s.baseline.condenser, crate::components::chiller_electric::Condenser::WaterCooled);
+        || matches!(
+            s.baseline.condenser,
+            crate::components::chiller_electric::Condenser::WaterCooled
+        );
     let pcm_kg = sec
         .storage
         .as_ref()
@@ -40,8 +44,16 @@ pub fn sizes_of(s: &Scenario, o: &OptionResult) -> Sizes {
         storage_m3: o.store_m3.unwrap_or(0.0),
         pcm_kg,
         chiller_kw: s.baseline.capacity_kw,
-        thermal_chiller_kw: if heat_driven { peak(&|r| r.cooling_kwh - r.backup_cooling_kwh) } else { 0.0 },
-        tower_kw: if wet { peak(&|r| r.heat_rejected_kwh) } else { 0.0 },
+        thermal_chiller_kw: if heat_driven {
+            peak(&|r| r.cooling_kwh - r.backup_cooling_kwh)
+        } else {
+            0.0
+        },
+        tower_kw: if wet {
+            peak(&|r| r.heat_rejected_kwh)
+        } else {
+            0.0
+        },
         boiler_kw: peak(&|r| r.backup_heat_kwh),
         pv_kwp: sec.pv.as_ref().map_or(0.0, |p| p.array.kwp),
     }
@@ -65,9 +77,19 @@ pub fn apply(s: &Scenario, ev: &mut Evaluation) -> Result<()> {
         );
         let money = match &s.economics {
             Some(e) => {
-                let export: Vec<f64> =
-                    o.hours.iter().map(|r| r.pv_export_kwh + (-r.grid_kwh).max(0.0)).collect();
-                let bill = economics::energy_cost(&import, &export, o.annual.fuel_kwh, o.annual.water_m3, e, s.site.jan1_weekday);
+                let export: Vec<f64> = o
+                    .hours
+                    .iter()
+                    .map(|r| r.pv_export_kwh + (-r.grid_kwh).max(0.0))
+                    .collect();
+                let bill = economics::energy_cost(
+                    &import,
+                    &export,
+                    o.annual.fuel_kwh,
+                    o.annual.water_m3,
+                    e,
+                    s.site.jan1_weekday,
+                );
                 let capex = e.costs.capex(&sizes_of(s, o));
                 let lc = economics::life_cycle(e, &capex, &bill, o.annual.cooling_kwh)?;
                 Some((capex.total, bill.total, lc))
@@ -92,7 +114,9 @@ pub fn apply(s: &Scenario, ev: &mut Evaluation) -> Result<()> {
             a.primary_energy_savings_fraction = sv.primary_energy_savings;
             a.co2_savings_fraction = sv.co2_savings;
             a.peak_reduction_kw = Some(sv.peak_reduction_kw);
-            if let (Some((capex, bill, lc)), Some((_, _, rlc)), Some(e)) = (money, rmoney, &s.economics) {
+            if let (Some((capex, bill, lc)), Some((_, _, rlc)), Some(e)) =
+                (money, rmoney, &s.economics)
+            {
                 let c = economics::compare(e, lc, rlc)?;
                 a.npv_vs_reference = Some(c.npv_saving);
                 a.simple_payback_years = c.simple_payback_years;

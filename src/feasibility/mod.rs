@@ -6,10 +6,10 @@
 //! Beckman, *Solar Engineering of Thermal Processes*, 4th ed., define the solar fraction of a
 //! thermal system). Seasonal COPs are ratios of sums, never means of hourly ratios.
 
-pub mod explore;
-pub mod metrics;
 pub mod economics;
 pub mod energy;
+pub mod explore;
+pub mod metrics;
 
 use crate::plant::HourRecord;
 use crate::weather::calendar;
@@ -32,7 +32,8 @@ pub struct Totals {
     pub fuel_kwh: f64,
     pub heat_rejected_kwh: f64,
     pub store_loss_kwh: f64,
-    /// Seasonal thermal COP: cooling / driving heat to the route.
+    /// Seasonal thermal COP: cooling the heat-driven machine made (less backup chiller) per
+    /// driving heat given to it.
     pub cop_thermal: Option<f64>,
     /// Seasonal electric COP: cooling / all electricity.
     pub cop_electric: Option<f64>,
@@ -112,7 +113,9 @@ impl Totals {
             t.grid_kwh += r.grid_kwh;
             *t.reason_hours.entry(r.reason.as_str()).or_insert(0) += 1;
         }
-        t.cop_thermal = ratio(t.cooling_kwh, t.heat_to_route_kwh);
+        // Thermal COP of the heat-driven machine: its own cooling (not the backup chiller's)
+        // per driving heat.
+        t.cop_thermal = ratio(t.cooling_kwh - t.backup_cooling_kwh, t.heat_to_route_kwh);
         t.cop_electric = ratio(t.cooling_kwh, t.electricity_kwh);
         let solar_used = t.route_solar_kwh + t.heat_demand_solar_kwh;
         t.solar_fraction = ratio(solar_used, t.heat_to_route_kwh + t.heat_demand_kwh);
@@ -177,6 +180,8 @@ impl OptionResult {
 #[derive(Debug, Clone)]
 pub struct Evaluation {
     pub scenario: String,
+    /// Currency label for money figures.
+    pub currency: String,
     pub reference: String,
     pub options: Vec<OptionResult>,
     /// Where the weather came from, and whether beam/diffuse were derived.

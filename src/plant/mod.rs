@@ -250,7 +250,11 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             let solar_kwh = (route_solar_j / J_PER_KWH).max(0.0);
             HeatSupplied {
                 solar_kwh,
-                backup_kwh: (r.heat_kwh - solar_kwh).max(0.0),
+                backup_kwh: if r.boiler_backup {
+                    (r.heat_kwh - solar_kwh).max(0.0)
+                } else {
+                    0.0
+                },
             }
         });
         let rh: RouteHour = opt.route.run(c, t_top0, heat);

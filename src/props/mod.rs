@@ -1,8 +1,8 @@
 //! Thermophysical properties: water and steam (IAPWS-IF97 via `seuif97`), humid air.
 //! Property routines know nothing of equipment, time or scenarios.
 
-pub mod libr;
 pub mod cubic;
 pub mod fluids;
+pub mod libr;
 pub mod psychro;
 pub mod water;

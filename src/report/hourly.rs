@@ -5,7 +5,7 @@ use crate::feasibility::Evaluation;
 use crate::weather::calendar;
 
 /// Column names, in order. README documents each.
-pub const COLUMNS: [&str; 30] = [
+pub const COLUMNS: [&str; 38] = [
     "option",
     "route",
     "hour_of_year",
@@ -36,6 +36,14 @@ pub const COLUMNS: [&str; 30] = [
     "balance_error_kwh",
     "stagnation",
     "reason",
+    "backup_cooling_kwh",
+    "water_m3",
+    "t_drive_c",
+    "t_sink_c",
+    "pv_used_kwh",
+    "pv_export_kwh",
+    "grid_kwh",
+    "detail",
 ];
 
 fn num(x: f64) -> String {
@@ -96,6 +104,19 @@ pub fn render(ev: &Evaluation) -> Result<Vec<u8>> {
                     format!("{:.3e}", r.balance_error_kwh),
                     u8::from(r.stagnation).to_string(),
                     r.reason.as_str().to_string(),
+                    num(r.backup_cooling_kwh),
+                    num(r.water_m3),
+                    opt(r.t_drive_c),
+                    opt(r.t_sink_c),
+                    num(r.pv_used_kwh),
+                    num(r.pv_export_kwh),
+                    num(r.grid_kwh),
+                    r.detail
+                        .iter()
+                        .filter(|(k, _)| !k.is_empty())
+                        .map(|(k, v)| format!("{k}={}", num(*v)))
+                        .collect::<Vec<_>>()
+                        .join(";"),
                 ])
                 .map_err(err)?;
             }

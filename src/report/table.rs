@@ -38,11 +38,14 @@ pub fn feasibility(ev: &Evaluation) -> String {
         "route",
         "load MWh",
         "cooling MWh",
+        "by backup chiller MWh",
         "unmet MWh",
         "unmet h",
         "electricity MWh",
+        "own PV used MWh",
         "thermal COP",
         "electric COP",
+        "water m³",
     ]);
     for o in &ev.options {
         let a = &o.annual;
@@ -51,11 +54,14 @@ pub fn feasibility(ev: &Evaluation) -> String {
             o.route.to_string(),
             mwh(a.load_kwh),
             mwh(a.cooling_kwh),
+            mwh(a.backup_cooling_kwh),
             mwh(a.unmet_kwh),
             a.unmet_hours.to_string(),
             mwh(a.electricity_kwh),
+            mwh(a.pv_used_kwh),
             ratio(a.cop_thermal, 2),
             ratio(a.cop_electric, 2),
+            format!("{:.0}", a.water_m3),
         ]);
     }
     right(&mut cool, 2);
@@ -103,23 +109,91 @@ pub fn feasibility(ev: &Evaluation) -> String {
     if let Some(r) = ev.options.iter().find(|o| o.option == ev.reference) {
         let mut diff = new_table(&[
             "option",
-            "electricity saved MWh",
+            "grid electricity saved MWh",
             "boiler fuel saved MWh",
-            "unmet change MWh",
+            "primary energy MWh",
+            "PE savings %",
+            "CO2 t",
+            "CO2 savings %",
+            "peak kW",
+            "peak cut kW",
+            "water m³/MWh cooling",
         ]);
         for o in &ev.options {
+            let a = &o.annual;
             diff.add_row(vec![
                 o.option.clone(),
-                mwh(r.annual.electricity_kwh - o.annual.electricity_kwh),
-                mwh(r.annual.fuel_kwh - o.annual.fuel_kwh),
-                mwh(o.annual.unmet_kwh - r.annual.unmet_kwh),
+                mwh(r.annual.grid_kwh - a.grid_kwh),
+                mwh(r.annual.fuel_kwh - a.fuel_kwh),
+                a.primary_energy_kwh.map_or("–".into(), mwh),
+                pct(a.primary_energy_savings_fraction),
+                a.co2_kg
+                    .map_or("–".into(), |v| format!("{:.1}", v / 1000.0)),
+                pct(a.co2_savings_fraction),
+                ratio(a.peak_electric_kw, 0),
+                ratio(a.peak_reduction_kw, 0),
+                ratio(a.water_m3_per_mwh_cooling, 2),
             ]);
         }
         right(&mut diff, 1);
         out.push_str(&format!(
-            "\nAgainst the reference option `{}`\n{diff}\n",
+            "\nEnergy, emissions and water against the reference `{}`\n{diff}\n",
             ev.reference
         ));
+        if ev.options.iter().any(|o| o.annual.capex.is_some()) {
+            let cur = &ev.currency;
+            let h = [
+                "option".to_string(),
+                format!("capital {cur}"),
+                format!("energy bill {cur}/yr"),
+                format!("annualised {cur}/yr"),
+                format!("LCOC {cur}/MWh"),
+                format!("NPV vs ref {cur}"),
+                "payback yr".into(),
+                "disc. payback yr".into(),
+                "IRR %".into(),
+            ];
+            let hr: Vec<&str> = h.iter().map(String::as_str).collect();
+            let mut money = new_table(&hr);
+            let k = |v: Option<f64>| v.map_or("–".into(), |v| format!("{v:.0}"));
+            for o in &ev.options {
+                let a = &o.annual;
+                let is_ref = o.option == ev.reference;
+                money.add_row(vec![
+                    o.option.clone(),
+                    k(a.capex),
+                    k(a.annual_energy_cost),
+                    k(a.annualised_cost),
+                    k(a.lcoc_per_mwh),
+                    if is_ref {
+                        "–".into()
+                    } else {
+                        k(a.npv_vs_reference)
+                    },
+                    if is_ref {
+                        "–".into()
+                    } else {
+                        a.simple_payback_years
+                            .map_or("none".into(), |v| format!("{v:.1}"))
+                    },
+                    if is_ref {
+                        "–".into()
+                    } else {
+                        a.discounted_payback_years
+                            .map_or("none".into(), |v| format!("{v:.1}"))
+                    },
+                    if is_ref {
+                        "–".into()
+                    } else {
+                        a.irr.map_or("none".into(), |v| format!("{:.1}", 100.0 * v))
+                    },
+                ]);
+            }
+            right(&mut money, 1);
+            out.push_str(&format!(
+                "\nMoney (indicative cost functions and prices from the scenario; see README)\n{money}\n"
+            ));
+        }
     }
     out.push_str(&format!("\n{}\n", crate::SCREENING_CAUTION));
     out

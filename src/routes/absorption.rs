@@ -397,10 +397,16 @@ impl Route for Absorption {
             heat_kwh: h.heat_kwh,
             t_supply_c: h.t_gen_in_c,
             t_return_c: h.t_return_c,
+            boiler_backup: self.spec.backup == Backup::Boiler,
         })
     }
 
-    fn run(&self, c: &HourConditions, t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
+    fn run(
+        &self,
+        c: &HourConditions,
+        t_store_top_c: Option<f64>,
+        heat: Option<HeatSupplied>,
+    ) -> RouteHour {
         let load = c.load.cooling_kw();
         if load <= 0.0 {
             return RouteHour {
@@ -439,13 +445,21 @@ impl Route for Absorption {
         let unmet = (load - delivered).max(0.0);
         // Tower water for all heat rejected this hour (machine and backup chiller share it).
         let water_m3 = if rejected > 0.0 {
-            self.tower.run(rejected, c.t_wb_c, c.p_kpa).map_or(h.tower_water_m3 * frac, |t| t.water_m3)
+            self.tower
+                .run(rejected, c.t_wb_c, c.p_kpa)
+                .map_or(h.tower_water_m3 * frac, |t| t.water_m3)
         } else {
             0.0
         };
         let reason = match h.reason {
-            AbsorptionReason::Ok | AbsorptionReason::NoLoad if unmet > 1e-6 => Reason::CapacityLimit,
-            AbsorptionReason::Ok | AbsorptionReason::NoLoad if frac < 1.0 - 1e-9 && h.heat_kwh > 0.0 => Reason::HeatShort,
+            AbsorptionReason::Ok | AbsorptionReason::NoLoad if unmet > 1e-6 => {
+                Reason::CapacityLimit
+            }
+            AbsorptionReason::Ok | AbsorptionReason::NoLoad
+                if frac < 1.0 - 1e-9 && h.heat_kwh > 0.0 =>
+            {
+                Reason::HeatShort
+            }
             AbsorptionReason::Ok | AbsorptionReason::NoLoad => Reason::Ok,
             AbsorptionReason::CapacityLimit => Reason::CapacityLimit,
             AbsorptionReason::SupplyTooCold => Reason::SupplyTooCold,

@@ -504,6 +504,28 @@ impl Desiccant {
         self.m_regen_kg_s / STANDARD_AIR_DENSITY_KG_M3
     }
 
+    /// Sensible and latent loads the supply air must meet at the room, kW.
+    ///
+    /// The building model counts the load of its outdoor air (outdoor → room state). In the
+    /// ventilation cycle the unit's supply *is* that outdoor air, so the room sees the
+    /// building load less the ventilation load at the unit's flow; the unit is credited with
+    /// both (outdoor → supply). In the recirculation cycle the room sees the building load.
+    fn room_loads(&self, c: &HourConditions) -> (f64, f64) {
+        let (q_s, q_l) = (c.load.sensible_kw.max(0.0), c.load.latent_kw.max(0.0));
+        match self.spec.cycle {
+            Cycle::Ventilation => {
+                let (m, t_room, w_room) =
+                    (self.m_supply_kg_s, c.load.t_in_c, self.spec.w_room_kg_kg);
+                // Only a load the outdoor air adds is taken off: cooler or drier outdoor air
+                // is already credited inside the building's (clamped, ≥ 0) load.
+                let vs = (m * cp_kj_kgk(c.w_kg_kg) * (c.t_db_c - t_room)).max(0.0);
+                let vl = (m * (c.w_kg_kg - w_room) * (2501.0 + 1.86 * t_room)).max(0.0);
+                ((q_s - vs).max(0.0), (q_l - vl).max(0.0))
+            }
+            Cycle::Recirculation => (q_s, q_l),
+        }
+    }
+
     fn ctx(&self, c: &HourConditions) -> Result<Ctx> {
         let outdoor = Air {
             t_c: c.t_db_c,
@@ -527,7 +549,7 @@ impl Desiccant {
         let heat_wheel_on = s1.t_c > s6_dec.t_c;
         let fan_supply_w = fan_power_w(self.spec.sfp_supply_w_per_m3_s, self.v_supply_m3_s());
         let fan_rise_k = fan_heat_rise_k(fan_supply_w, self.m_supply_kg_s, room.w_kg_kg);
-        let q_s = c.load.sensible_kw.max(0.0);
+        let (q_s, _) = self.room_loads(c);
         let t_need = room.t_c - q_s / (self.m_supply_kg_s * cp_kj_kgk(room.w_kg_kg));
         Ok(Ctx {
             p_kpa: p,
@@ -697,11 +719,10 @@ impl Desiccant {
 
     /// The control with the regeneration heat capped at `heat_cap_kwh` (`None`: no cap).
     fn solve_capped(&self, c: &HourConditions, heat_cap_kwh: Option<f64>) -> Result<DesiccantHour> {
-        let q_s = c.load.sensible_kw.max(0.0);
-        let q_l = c.load.latent_kw.max(0.0);
-        if q_s + q_l <= 0.0 {
+        if c.load.cooling_kw() <= 0.0 {
             return Ok(self.off_hour(c));
         }
+        let (q_s, q_l) = self.room_loads(c);
         let x = self.ctx(c)?;
         let (m_p, t_room, w_room) = (self.m_supply_kg_s, c.load.t_in_c, self.spec.w_room_kg_kg);
         let w_target = w_room - q_l / (m_p * (2501.0 + 1.86 * t_room));
@@ -785,17 +806,22 @@ impl Desiccant {
         let s = op.supply;
         let cap_s = m_p * cp_kj_kgk(s.w_kg_kg) * (t_room - s.t_c);
         let cap_l = m_p * (w_room - s.w_kg_kg) * (2501.0 + 1.86 * t_room);
-        let sens = cap_s.min(q_s);
-        let lat = cap_l.min(q_l);
+        // Room-side delivery, plus the part of the building's load the unit removed before the
+        // air reached the room (its outdoor air, ventilation cycle): `room_loads`.
+        let (q_s_b, q_l_b) = (c.load.sensible_kw.max(0.0), c.load.latent_kw.max(0.0));
+        let sens = cap_s.min(q_s) + (q_s_b - q_s);
+        let lat = cap_l.min(q_l) + (q_l_b - q_l);
         if reason == DesiccantReason::Ok && cap_s < q_s * (1.0 - 1e-9) {
             reason = DesiccantReason::SensibleLimit;
         }
-        let short = q_s + q_l - (sens + lat).max(0.0);
+        let short = q_s_b + q_l_b - (sens + lat).max(0.0);
         let (backup_cool, backup_el, backup_rej, unmet) = match (&self.backup, short > 1e-12) {
             (Some(b), true) => {
-                let h = b
-                    .chiller
-                    .run_hour(short, b.t_condenser_in_c(c, short), b.chiller.t_chw_supply_c);
+                let h = b.chiller.run_hour(
+                    short,
+                    b.t_condenser_in_c(c, short),
+                    b.chiller.t_chw_supply_c,
+                );
                 (
                     h.cooling_kwh,
                     h.electricity_kwh,
@@ -902,9 +928,9 @@ impl Desiccant {
         let load = c.load.cooling_kw().max(0.0);
         match &self.backup {
             Some(b) => {
-                let h = b
-                    .chiller
-                    .run_hour(load, b.t_condenser_in_c(c, load), b.chiller.t_chw_supply_c);
+                let h =
+                    b.chiller
+                        .run_hour(load, b.t_condenser_in_c(c, load), b.chiller.t_chw_supply_c);
                 RouteHour {
                     cooling_kwh: h.cooling_kwh,
                     unmet_kwh: h.unmet_kwh,
@@ -913,7 +939,8 @@ impl Desiccant {
                     cop_thermal: None,
                     cop_electric: (h.electricity_kwh > 0.0)
                         .then(|| h.cooling_kwh / h.electricity_kwh),
-                    reason: Reason::CapacityLimit,
+                    reason: Reason::NoSolution,
+                    backup_cooling_kwh: h.cooling_kwh,
                     ..RouteHour::default()
                 }
             }
@@ -924,7 +951,7 @@ impl Desiccant {
                 heat_rejected_kwh: 0.0,
                 cop_thermal: None,
                 cop_electric: None,
-                reason: Reason::CapacityLimit,
+                reason: Reason::NoSolution,
                 ..RouteHour::default()
             },
         }
@@ -944,10 +971,18 @@ impl Route for Desiccant {
             heat_kwh: h.regen_heat_kwh,
             t_supply_c: h.t_water_supply_c,
             t_return_c: h.t_water_return_c,
+            // With a backup chiller behind it, regeneration runs on solar heat alone (burning
+            // fuel to dry air the chiller could dry is a loss); without one the boiler helps.
+            boiler_backup: self.backup.is_none(),
         })
     }
 
-    fn run(&self, c: &HourConditions, _t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
+    fn run(
+        &self,
+        c: &HourConditions,
+        _t_store_top_c: Option<f64>,
+        heat: Option<HeatSupplied>,
+    ) -> RouteHour {
         let heat = Some(heat.unwrap_or_default());
         let h = match self.solve_hour(c, heat) {
             Ok(h) => h,
@@ -1029,22 +1064,30 @@ mod tests {
         .unwrap()
     }
 
-    /// Moderate humid hour (30 °C, 12 g/kg; room 26 °C/10.5 g/kg; 20 kW sensible, 5 kW
-    /// latent): the wheel regenerates between the limits and the supply meets the latent
-    /// target W = 0.0105 − 5/(3.333·(2501 + 1.86·26)) = 0.009912 kg/kg (hand calculation).
+    /// Moderate humid hour (30 °C, 12 g/kg; room 26 °C/10.5 g/kg; building load 20 kW
+    /// sensible, 20 kW latent, ventilation cycle). The unit's outdoor air carries the
+    /// ventilation part of that load: at m = 3.333 kg/s, latent m·(0.012 − 0.0105)·(2501 +
+    /// 1.86·26) = 12.75 kW and sensible m·c_p·(30 − 26) = 13.6 kW, so the room sees 7.25 kW
+    /// latent and the supply must reach W = 0.0105 − 7.25/(m·(2501 + 1.86·26)) (hand
+    /// calculation). The unit is credited with the whole building load it removes.
     #[test]
     fn humid_hour_meets_latent_target() {
         let u = unit();
-        let h = u.solve_hour(&hour(30.0, 0.012, 20.0, 5.0), None).unwrap();
-        let w_target = 0.0105 - 5.0 / (u.m_supply_kg_s * (2501.0 + 1.86 * 26.0));
+        let m = u.m_supply_kg_s;
+        let vl = m * (0.012 - 0.0105) * (2501.0 + 1.86 * 26.0);
+        let h = u.solve_hour(&hour(30.0, 0.012, 20.0, 20.0), None).unwrap();
+        let w_target = 0.0105 - (20.0 - vl) / (m * (2501.0 + 1.86 * 26.0));
         assert!((h.w_supply_kg_kg - w_target).abs() < 1e-6, "{h:?}");
         let t = h.t_regen_c.unwrap();
         assert!((50.0..=75.0).contains(&t), "{t}");
-        assert!((h.latent_kwh - 5.0).abs() < 1e-3 && (h.sensible_kwh - 20.0).abs() < 1e-6);
+        assert!(
+            (h.latent_kwh - 20.0).abs() < 1e-3 && (h.sensible_kwh - 20.0).abs() < 1e-6,
+            "{h:?}"
+        );
         assert_eq!(h.reason, DesiccantReason::Ok);
         assert!(h.energy_balance_rel < 1e-9 && h.water_balance_rel < 1e-9);
         let r = u
-            .heat_request(&hour(30.0, 0.012, 20.0, 5.0), Some(40.0))
+            .heat_request(&hour(30.0, 0.012, 20.0, 20.0), Some(40.0))
             .unwrap();
         assert!((r.heat_kwh - h.regen_heat_kwh).abs() < 1e-12);
         assert!((r.t_supply_c - (t + 5.0)).abs() < 1e-12 && r.t_return_c < r.t_supply_c);
@@ -1054,9 +1097,11 @@ mod tests {
     #[test]
     fn very_humid_hour_hits_latent_limit() {
         let u = unit();
-        let c = hour(32.0, 0.016, 20.0, 8.0);
+        // Building latent 100 kW, of which the outdoor air brings m·0.0055·2549 = 46.7 kW: the
+        // room's 53.3 kW needs W ≈ 4.2 g/kg from 16 g/kg outdoor air.
+        let c = hour(32.0, 0.016, 20.0, 100.0);
         let h = u.solve_hour(&c, None).unwrap();
-        assert_eq!(h.reason, DesiccantReason::LatentLimit);
+        assert_eq!(h.reason, DesiccantReason::LatentLimit, "{h:?}");
         assert_eq!(h.t_regen_c, Some(75.0));
         assert!(h.backup_cooling_kwh > 0.0 && h.unmet_kwh < 1e-9);
         let rh = u.run(
@@ -1067,15 +1112,16 @@ mod tests {
                 backup_kwh: 0.0,
             }),
         );
-        assert!((rh.cooling_kwh - 28.0).abs() < 1e-9 && rh.reason == Reason::LatentLimit);
+        assert!((rh.cooling_kwh - 120.0).abs() < 1e-9 && rh.reason == Reason::LatentLimit);
     }
 
     /// Outdoor air drier than the supply target: wheel stopped, no heat asked, evaporative
-    /// cooling carries the sensible load.
+    /// cooling carries the sensible load (building 60 kW sensible, of which the outdoor air
+    /// brings m·c_p·(40 − 26) ≈ 47 kW: the room's 13 kW needs supply below 26 °C).
     #[test]
     fn dry_hour_is_evaporative_only() {
         let u = unit();
-        let c = hour(40.0, 0.006, 30.0, 2.0);
+        let c = hour(40.0, 0.006, 60.0, 2.0);
         let h = u.solve_hour(&c, None).unwrap();
         assert_eq!(h.reason, DesiccantReason::EvaporativeOnly);
         assert_eq!(h.regen_heat_kwh, 0.0);

@@ -36,7 +36,11 @@ impl Electric {
             ),
             Condenser::AirCooled => None,
         };
-        Ok(Electric { chiller, tower_approach_k, tower })
+        Ok(Electric {
+            chiller,
+            tower_approach_k,
+            tower,
+        })
     }
 }
 
@@ -53,7 +57,11 @@ impl Electric {
                 let fixed = c.t_wb_c + self.tower_approach_k;
                 let t = match &self.tower {
                     Some(t) => t
-                        .t_cold_c(load_kw * (1.0 + 1.0 / self.chiller.cop_rated), c.t_wb_c, c.p_kpa)
+                        .t_cold_c(
+                            load_kw * (1.0 + 1.0 / self.chiller.cop_rated),
+                            c.t_wb_c,
+                            c.p_kpa,
+                        )
                         .unwrap_or(fixed),
                     None => fixed,
                 };
@@ -87,9 +95,11 @@ impl Route for Electric {
                 ..RouteHour::default()
             };
         }
-        let h = self
-            .chiller
-            .run_hour(load, self.t_condenser_in_c(c, load), self.chiller.t_chw_supply_c);
+        let h = self.chiller.run_hour(
+            load,
+            self.t_condenser_in_c(c, load),
+            self.chiller.t_chw_supply_c,
+        );
         let tower = self
             .tower
             .as_ref()

@@ -44,6 +44,10 @@ pub struct HeatRequest {
     pub t_supply_c: f64,
     /// Temperature the route returns to the store, °C.
     pub t_return_c: f64,
+    /// May the boiler make up what the store cannot give? `false` for routes whose backup is
+    /// electric (an absorption chiller with an electric backup chiller, an engine whose motor
+    /// carries the shaft): heat from a boiler would only be burnt to save electricity.
+    pub boiler_backup: bool,
 }
 
 /// Driving heat actually given to a route this hour.
@@ -173,5 +177,10 @@ pub trait Route: Send + Sync {
     /// Run the hour with the heat supplied (`None` when the route asked for none). The store
     /// temperature is the one `heat_request` saw, so a route can re-solve the same operating
     /// point deterministically.
-    fn run(&self, c: &HourConditions, t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour;
+    fn run(
+        &self,
+        c: &HourConditions,
+        t_store_top_c: Option<f64>,
+        heat: Option<HeatSupplied>,
+    ) -> RouteHour;
 }

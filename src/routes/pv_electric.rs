@@ -50,7 +50,12 @@ mod tests {
             w_kg_kg: 0.015,
             t_wb_c: 25.0,
             p_kpa: 101.325,
-            load: LoadHour { sensible_kw: load_kw, latent_kw: 0.0, heating_kw: 0.0, t_in_c: 24.0 },
+            load: LoadHour {
+                sensible_kw: load_kw,
+                latent_kw: 0.0,
+                heating_kw: 0.0,
+                t_in_c: 24.0,
+            },
         }
     }
 
@@ -58,8 +63,12 @@ mod tests {
     /// takes.
     #[test]
     fn pv_is_used_then_exported() {
-        let chiller = Electric::new(ChillerSpec::typical(Condenser::AirCooled, 100.0), 4.0).unwrap();
-        let r = PvElectric { chiller, pv_ac_kwh: vec![0.0, 30.0, 5.0] };
+        let chiller =
+            Electric::new(ChillerSpec::typical(Condenser::AirCooled, 100.0), 4.0).unwrap();
+        let r = PvElectric {
+            chiller,
+            pv_ac_kwh: vec![0.0, 30.0, 5.0],
+        };
         let h = r.run(&hour(1, 50.0), None, None);
         assert!((h.pv_used_kwh + h.pv_export_kwh - 30.0).abs() < 1e-12);
         assert!(h.pv_used_kwh <= h.electricity_kwh + 1e-12);

@@ -644,10 +644,16 @@ impl Route for RankineVc {
             heat_kwh: h.heat_wanted_kwh,
             t_supply_c: h.t_supply_c,
             t_return_c: h.t_return_c,
+            boiler_backup: false,
         })
     }
 
-    fn run(&self, c: &HourConditions, t_store_top_c: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
+    fn run(
+        &self,
+        c: &HourConditions,
+        t_store_top_c: Option<f64>,
+        heat: Option<HeatSupplied>,
+    ) -> RouteHour {
         let h = self.solve_hour(c, t_store_top_c, Some(heat.unwrap_or_default()));
         let elec = h.motor_electricity_kwh + h.backup_electricity_kwh;
         let rejected = h.engine_heat_rejected_kwh + h.chiller_heat_rejected_kwh;
@@ -672,6 +678,9 @@ impl Route for RankineVc {
                 RankineVcReason::MotorAssist => Reason::MotorAssist,
             },
             water_m3: tower.map_or(0.0, |t| t.water_m3),
+            // The share of the cooling the motor drove counts as backup, so the seasonal
+            // thermal COP is the sun-driven cooling per solar heat.
+            backup_cooling_kwh: (h.cooling_kwh - h.cop_thermal_combined * h.heat_used_kwh).max(0.0),
             t_drive_c: (h.heat_used_kwh > 0.0).then_some(h.t_supply_c),
             t_sink_c: Some(h.t_sink_c),
             detail: [

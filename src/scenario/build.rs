@@ -304,38 +304,68 @@ fn missing(key: &str, route: RouteKind) -> Error {
     Error::input(
         key,
         "(missing)",
-        format!("route = \"{}\" needs an [options.NAME.{key}] section", route.as_str()),
+        format!(
+            "route = \"{}\" needs an [options.NAME.{key}] section",
+            route.as_str()
+        ),
     )
 }
 
 /// The cooling route of one option, sized from its section (keys relative to the option).
-fn build_route(s: &Scenario, _name: &str, o: &OptionSection, p: &Prepared) -> Result<Box<dyn Route>> {
+fn build_route(
+    s: &Scenario,
+    _name: &str,
+    o: &OptionSection,
+    p: &Prepared,
+) -> Result<Box<dyn Route>> {
     let base = &s.baseline;
     Ok(match o.route {
         RouteKind::Electric => Box::new(
             Electric::new(base.clone(), TOWER_APPROACH_K).map_err(|e| e.within("", "baseline"))?,
         ),
         RouteKind::Absorption => {
-            let spec = o.absorption.clone().ok_or_else(|| missing("absorption", o.route))?;
-            Box::new(crate::routes::absorption::build(spec, base).map_err(|e| e.within("", "absorption"))?)
+            let spec = o
+                .absorption
+                .clone()
+                .ok_or_else(|| missing("absorption", o.route))?;
+            Box::new(
+                crate::routes::absorption::build(spec, base)
+                    .map_err(|e| e.within("", "absorption"))?,
+            )
         }
         RouteKind::Desiccant => {
-            let mut spec = o.desiccant.clone().ok_or_else(|| missing("desiccant", o.route))?;
+            let mut spec = o
+                .desiccant
+                .clone()
+                .ok_or_else(|| missing("desiccant", o.route))?;
             // The room humidity the air handler must hold is the building's set-point.
             if let Some(b) = &s.load.model {
                 let p_site = psychro::pressure_at_elevation_kpa(s.site.elevation_m);
-                spec.w_room_kg_kg = psychro::ratio_from_rh(b.t_cool_setpoint_c, b.rh_setpoint_pct, p_site)?;
+                spec.w_room_kg_kg =
+                    psychro::ratio_from_rh(b.t_cool_setpoint_c, b.rh_setpoint_pct, p_site)?;
             }
-            Box::new(crate::routes::desiccant::build(&spec, base).map_err(|e| e.within("", "desiccant"))?)
+            Box::new(
+                crate::routes::desiccant::build(&spec, base)
+                    .map_err(|e| e.within("", "desiccant"))?,
+            )
         }
         RouteKind::RankineVc => {
-            let spec = o.rankine_vc.as_ref().ok_or_else(|| missing("rankine_vc", o.route))?;
-            Box::new(crate::routes::rankine_vc::build(spec, base).map_err(|e| e.within("", "rankine_vc"))?)
+            let spec = o
+                .rankine_vc
+                .as_ref()
+                .ok_or_else(|| missing("rankine_vc", o.route))?;
+            Box::new(
+                crate::routes::rankine_vc::build(spec, base)
+                    .map_err(|e| e.within("", "rankine_vc"))?,
+            )
         }
         RouteKind::PvElectric => {
             let pv = o.pv.as_ref().ok_or_else(|| missing("pv", o.route))?;
             pv.array.validate().map_err(|e| e.within("", "pv.array"))?;
-            let fixed = Plane { tilt_deg: pv.tilt_deg, azimuth_deg: pv.azimuth_deg };
+            let fixed = Plane {
+                tilt_deg: pv.tilt_deg,
+                azimuth_deg: pv.azimuth_deg,
+            };
             let pv_ac_kwh = p
                 .weather
                 .hours
@@ -343,16 +373,31 @@ fn build_route(s: &Scenario, _name: &str, o: &OptionSection, p: &Prepared) -> Re
                 .zip(&p.sun)
                 .map(|(h, sun)| {
                     let (plane, aoi) = track(pv.tracking, fixed, sun);
-                    let g = plane_irradiance(pv.sky_model, plane, aoi, sun, h.ghi_w_m2, h.dni_w_m2, h.dhi_w_m2, s.site.ground_albedo);
+                    let g = plane_irradiance(
+                        pv.sky_model,
+                        plane,
+                        aoi,
+                        sun,
+                        h.ghi_w_m2,
+                        h.dni_w_m2,
+                        h.dhi_w_m2,
+                        s.site.ground_albedo,
+                    );
                     // Beam through the glass by the one-parameter IAM (ASHRAE form).
-                    let k = if aoi < 90.0 { (1.0 - pv.iam_b0 * (1.0 / aoi.to_radians().cos() - 1.0)).clamp(0.0, 1.0) } else { 0.0 };
+                    let k = if aoi < 90.0 {
+                        (1.0 - pv.iam_b0 * (1.0 / aoi.to_radians().cos() - 1.0)).clamp(0.0, 1.0)
+                    } else {
+                        0.0
+                    };
                     let poa_eff = g.beam_w_m2 * k + g.diffuse_w_m2();
                     // Wind at 1 m/s when the weather gives none (common practice for still air).
-                    pv.array.ac_power_kw(poa_eff, h.t_db_c, h.wind_m_s.unwrap_or(1.0))
+                    pv.array
+                        .ac_power_kw(poa_eff, h.t_db_c, h.wind_m_s.unwrap_or(1.0))
                 })
                 .collect();
             Box::new(crate::routes::pv_electric::PvElectric {
-                chiller: Electric::new(base.clone(), TOWER_APPROACH_K).map_err(|e| e.within("", "baseline"))?,
+                chiller: Electric::new(base.clone(), TOWER_APPROACH_K)
+                    .map_err(|e| e.within("", "baseline"))?,
                 pv_ac_kwh,
             })
         }
@@ -416,8 +461,10 @@ fn solar_loop(
     };
     // Water properties once per store, at its mean working temperature (IAPWS-IF97).
     let t_design = 0.5 * (st.t_init_c + st.t_max_c);
-    let cp = water::liquid_cp_j_kgk(t_design, 300.0).map_err(|e| e.within("", "storage"))?;
-    let rho = water::liquid_density_kg_m3(t_design, 300.0).map_err(|e| e.within("", "storage"))?;
+    let cp =
+        water::liquid_cp_j_kgk(t_design, st.pressure_kpa).map_err(|e| e.within("", "storage"))?;
+    let rho = water::liquid_density_kg_m3(t_design, st.pressure_kpa)
+        .map_err(|e| e.within("", "storage"))?;
     let field = Field {
         collector,
         in_series: f.in_series,
@@ -530,6 +577,11 @@ pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Result<Evaluation
         .collect();
     let mut ev = Evaluation {
         scenario: l.scenario.name.clone(),
+        currency: l
+            .scenario
+            .economics
+            .as_ref()
+            .map_or_else(String::new, |e| e.currency.clone()),
         reference: l.scenario.reference.clone(),
         options,
         weather_origin: match p.weather.derived_beam_diffuse {

@@ -290,14 +290,21 @@ fn option(s: &Scenario, o: &OptionSection) -> Result<()> {
             return Err(Error::input(
                 key,
                 "(section given)",
-                format!("belongs to route = \"{}\", but this option has route = \"{}\"", kind.as_str(), o.route.as_str()),
+                format!(
+                    "belongs to route = \"{}\", but this option has route = \"{}\"",
+                    kind.as_str(),
+                    o.route.as_str()
+                ),
             ));
         }
         if !present && o.route == kind {
             return Err(Error::input(
                 key,
                 "(missing)",
-                format!("route = \"{}\" needs an [options.NAME.{key}] section", kind.as_str()),
+                format!(
+                    "route = \"{}\" needs an [options.NAME.{key}] section",
+                    kind.as_str()
+                ),
             ));
         }
     }
@@ -305,7 +312,10 @@ fn option(s: &Scenario, o: &OptionSection) -> Result<()> {
         return Err(Error::input(
             "field",
             "(missing)",
-            format!("route = \"{}\" is driven by solar heat: it needs [options.NAME.field] and [options.NAME.storage]", o.route.as_str()),
+            format!(
+                "route = \"{}\" is driven by solar heat: it needs [options.NAME.field] and [options.NAME.storage]",
+                o.route.as_str()
+            ),
         ));
     }
     if let Some(a) = &o.absorption {
@@ -318,9 +328,27 @@ fn option(s: &Scenario, o: &OptionSection) -> Result<()> {
         r.validate().map_err(|e| e.within("", "rankine_vc"))?;
     }
     if let Some(pv) = &o.pv {
-        in_range("pv.tilt_deg", pv.tilt_deg, 0.0, 90.0, "PV tilt from horizontal, degrees")?;
-        in_range("pv.azimuth_deg", pv.azimuth_deg, 0.0, 360.0, "degrees clockwise from north")?;
-        in_range("pv.iam_b0", pv.iam_b0, 0.0, 0.5, "one-parameter beam IAM of the module glass")?;
+        in_range(
+            "pv.tilt_deg",
+            pv.tilt_deg,
+            0.0,
+            90.0,
+            "PV tilt from horizontal, degrees",
+        )?;
+        in_range(
+            "pv.azimuth_deg",
+            pv.azimuth_deg,
+            0.0,
+            360.0,
+            "degrees clockwise from north",
+        )?;
+        in_range(
+            "pv.iam_b0",
+            pv.iam_b0,
+            0.0,
+            0.5,
+            "one-parameter beam IAM of the module glass",
+        )?;
         pv.array.validate().map_err(|e| e.within("", "pv.array"))?;
     }
     if let Some(r) = &o.refrigerant {
@@ -528,11 +556,22 @@ fn storage(st: &StorageSection) -> Result<()> {
                 "tank height, m",
             )?;
             count("nodes", st.nodes, 1, 50, "stratification nodes")?;
-            if st.t_max_c > 99.0 {
+            in_range(
+                "pressure_kpa",
+                st.pressure_kpa,
+                100.0,
+                2000.0,
+                "absolute pressure of the tank, kPa",
+            )?;
+            let t_sat = crate::props::water::saturation_temperature_c(st.pressure_kpa)?;
+            if st.t_max_c > 99.0 && st.t_max_c > t_sat - 5.0 {
                 return Err(Error::input(
                     "t_max_c",
                     st.t_max_c,
-                    "an unpressurised water tank model is limited to 99 °C",
+                    format!(
+                        "must stay 5 K below saturation at pressure_kpa = {} ({t_sat:.1} °C): raise the pressure or lower the maximum",
+                        st.pressure_kpa
+                    ),
                 ));
             }
         }

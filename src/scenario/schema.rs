@@ -7,11 +7,11 @@ use crate::components::collector::CollectorSpec;
 use crate::components::pv::PvSpec;
 use crate::feasibility::economics::EconomicsSpec;
 use crate::feasibility::energy::{EnergySpec, RefrigerantSpec};
+use crate::load::file::LoadFileSpec;
+use crate::load::rc5::BuildingSpec;
 use crate::routes::absorption::AbsorptionSpec;
 use crate::routes::desiccant::DesiccantSpec;
 use crate::routes::rankine_vc::RankineVcSpec;
-use crate::load::file::LoadFileSpec;
-use crate::load::rc5::BuildingSpec;
 use crate::sun::incidence::Tracking;
 use crate::sun::sky::SkyModel;
 use crate::weather::file::FileSpec;
@@ -231,7 +231,10 @@ impl RouteKind {
 
     /// Routes driven by heat from the option's field and store.
     pub fn is_heat_driven(&self) -> bool {
-        matches!(self, RouteKind::Absorption | RouteKind::Desiccant | RouteKind::RankineVc)
+        matches!(
+            self,
+            RouteKind::Absorption | RouteKind::Desiccant | RouteKind::RankineVc
+        )
     }
 }
 
@@ -403,6 +406,11 @@ pub struct StorageSection {
     /// Collection stops when the top of the store reaches this, °C (stagnation follows).
     #[serde(default = "default_t_max")]
     pub t_max_c: f64,
+    /// Absolute pressure a water tank is held at, kPa (default 300: an unvented store up to
+    /// 99 °C). Above 99 °C the tank must be pressurised: `t_max_c` at least 5 K below
+    /// saturation at this pressure.
+    #[serde(default = "default_tank_p")]
+    pub pressure_kpa: f64,
     pub mass_kg: Option<f64>,
     pub cp_solid_j_kgk: Option<f64>,
     pub cp_liquid_j_kgk: Option<f64>,
@@ -415,6 +423,9 @@ pub struct StorageSection {
 
 fn default_nodes() -> u32 {
     10
+}
+fn default_tank_p() -> f64 {
+    300.0
 }
 fn default_room() -> f64 {
     20.0
