@@ -172,9 +172,46 @@ enum Substance {
         #[arg(long)]
         json: bool,
     },
+    /// Lithium-bromide–water solution (Pátek & Klomfar 2006, 273–500 K, x 0–0.75): give the
+    /// mass fraction with temperature or pressure. Enthalpy and entropy referred as for water
+    /// in IAPWS: zero internal energy and entropy of saturated liquid water at the triple point.
+    Libr {
+        /// LiBr mass fraction, kg LiBr per kg solution.
+        #[arg(long)]
+        x: f64,
+        /// Temperature, °C.
+        #[arg(long = "t-c", conflicts_with = "p_kpa")]
+        t_c: Option<f64>,
+        /// Equilibrium (vapour) pressure, kPa.
+        #[arg(long = "p-kpa")]
+        p_kpa: Option<f64>,
+        #[arg(long)]
+        json: bool,
+    },
+    /// A refrigerant or organic working fluid (Peng–Robinson): temperature or pressure with a
+    /// quality, or pressure with enthalpy or entropy, or temperature and pressure. Enthalpy and
+    /// entropy referred to the IIR convention (h = 200 kJ/kg, s = 1 kJ/(kg·K) for saturated
+    /// liquid at 0 °C).
+    Fluid {
+        /// R245fa, n-pentane, R1233zd(E), toluene, R134a, R32, R290, R1234ze(E).
+        name: String,
+        #[arg(long = "t-c", allow_negative_numbers = true)]
+        t_c: Option<f64>,
+        #[arg(long = "p-kpa")]
+        p_kpa: Option<f64>,
+        #[arg(long)]
+        q: Option<f64>,
+        #[arg(long = "h-kj-kg", allow_negative_numbers = true)]
+        h_kj_kg: Option<f64>,
+        #[arg(long = "s-kj-kg-k", allow_negative_numbers = true)]
+        s_kj_kg_k: Option<f64>,
+        #[arg(long)]
+        json: bool,
+    },
 }
 
 fn state(s: Substance) -> Result<String, Error> {
+    use parhelion::props::{fluids, libr};
     use parhelion::props::{psychro, water};
     use parhelion::report::state::{Quantity as Q, render_json, render_text};
     match s {
@@ -315,6 +352,134 @@ fn state(s: Substance) -> Result<String, Error> {
                 render_json(&[], &v)
             } else {
                 render_text("water (IAPWS-IF97)", &v)
+            })
+        }
+        Substance::Libr {
+            x,
+            t_c,
+            p_kpa,
+            json,
+        } => {
+            let st = match (t_c, p_kpa) {
+                (Some(t), None) => libr::state_tx(t, x)?,
+                (None, Some(p)) => libr::state_px(p, x)?,
+                _ => {
+                    return Err(Error::input(
+                        "arguments",
+                        "(neither)",
+                        "give --t-c or --p-kpa with --x",
+                    ));
+                }
+            };
+            let v = [
+                Q {
+                    key: "t_c",
+                    label: "temperature, °C",
+                    value: Some(st.t_c),
+                },
+                Q {
+                    key: "p_kpa",
+                    label: "vapour pressure, kPa",
+                    value: Some(st.p_kpa),
+                },
+                Q {
+                    key: "x",
+                    label: "LiBr mass fraction",
+                    value: Some(st.x),
+                },
+                Q {
+                    key: "h_kj_kg",
+                    label: "enthalpy, kJ/kg",
+                    value: Some(st.h_kj_kg),
+                },
+                Q {
+                    key: "s_kj_kg_k",
+                    label: "entropy, kJ/(kg·K)",
+                    value: Some(st.s_kj_kgk),
+                },
+                Q {
+                    key: "rho_kg_m3",
+                    label: "density, kg/m³",
+                    value: Some(st.rho_kg_m3),
+                },
+                Q {
+                    key: "cp_kj_kg_k",
+                    label: "cp, kJ/(kg·K)",
+                    value: Some(st.cp_kj_kgk),
+                },
+                Q {
+                    key: "t_cryst_c",
+                    label: "crystallisation temperature, °C",
+                    value: st.t_cryst_c,
+                },
+            ];
+            Ok(if json {
+                render_json(&[], &v)
+            } else {
+                render_text("LiBr–water solution (Pátek & Klomfar 2006)", &v)
+            })
+        }
+        Substance::Fluid {
+            name,
+            t_c,
+            p_kpa,
+            q,
+            h_kj_kg,
+            s_kj_kg_k,
+            json,
+        } => {
+            let f = fluids::Fluid::from_name(&name)?;
+            let st = match (t_c, p_kpa, q, h_kj_kg, s_kj_kg_k) {
+                (Some(t), None, Some(q), None, None) => fluids::state_tq(f, t, q)?,
+                (None, Some(p), Some(q), None, None) => fluids::state_pq(f, p, q)?,
+                (None, Some(p), None, Some(h), None) => fluids::state_ph(f, p, h)?,
+                (None, Some(p), None, None, Some(s)) => fluids::state_ps(f, p, s)?,
+                (Some(t), Some(p), None, None, None) => fluids::state_tp(f, t, p)?,
+                _ => {
+                    return Err(Error::input(
+                        "arguments",
+                        "(this combination)",
+                        "give --t-c with --q, --p-kpa with --q, --h-kj-kg or --s-kj-kg-k, or --t-c with --p-kpa",
+                    ));
+                }
+            };
+            let v = [
+                Q {
+                    key: "t_c",
+                    label: "temperature, °C",
+                    value: Some(st.t_c),
+                },
+                Q {
+                    key: "p_kpa",
+                    label: "pressure, kPa",
+                    value: Some(st.p_kpa),
+                },
+                Q {
+                    key: "q",
+                    label: "quality",
+                    value: st.q,
+                },
+                Q {
+                    key: "h_kj_kg",
+                    label: "enthalpy, kJ/kg (IIR)",
+                    value: Some(st.h_kj_kg),
+                },
+                Q {
+                    key: "s_kj_kg_k",
+                    label: "entropy, kJ/(kg·K) (IIR)",
+                    value: Some(st.s_kj_kg_k),
+                },
+                Q {
+                    key: "rho_kg_m3",
+                    label: "density, kg/m³",
+                    value: Some(st.rho_kg_m3),
+                },
+            ];
+            let title = format!("{} (Peng–Robinson)", f.name());
+            Ok(if json {
+                render_json(&[("fluid", f.name())], &v)
+            } else {
+                render_text(&title, &v)
             })
         }
     }

@@ -19,19 +19,36 @@ fn bench(c: &mut Criterion) {
         w_kg_kg: 0.015,
         t_wb_c: 24.0,
         p_kpa: 101.325,
-        load: LoadHour { sensible_kw: 18.0, latent_kw: 4.0, heating_kw: 0.0, t_in_c: 25.0 },
+        load: LoadHour {
+            sensible_kw: 18.0,
+            latent_kw: 4.0,
+            heating_kw: 0.0,
+            t_in_c: 25.0,
+        },
     };
     c.bench_function("absorption hour (heat_request + run)", |b| {
         b.iter(|| {
             let r = route.heat_request(black_box(&hour), Some(85.0));
-            let h = r.map(|q| HeatSupplied { solar_kwh: q.heat_kwh, backup_kwh: 0.0 });
-            black_box(route.run(&hour, h))
+            let h = r.map(|q| HeatSupplied {
+                solar_kwh: q.heat_kwh,
+                backup_kwh: 0.0,
+            });
+            black_box(route.run(&hour, Some(85.0), h))
         })
     });
     let m = Machine::size(Rating::typical(35.0)).expect("size");
-    let warm = m.solve(Mode::MeetLoad { q_evap_kw: 20.0 }, 29.0, 7.0, None).expect("solve");
+    let warm = m
+        .solve(Mode::MeetLoad { q_evap_kw: 20.0 }, 29.0, 7.0, None)
+        .expect("solve");
     c.bench_function("absorption cycle solve, warm start", |b| {
-        b.iter(|| black_box(m.solve(Mode::MeetLoad { q_evap_kw: 21.0 }, black_box(29.5), 7.0, Some(&warm))))
+        b.iter(|| {
+            black_box(m.solve(
+                Mode::MeetLoad { q_evap_kw: 21.0 },
+                black_box(29.5),
+                7.0,
+                Some(&warm),
+            ))
+        })
     });
 }
 

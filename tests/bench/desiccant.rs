@@ -44,7 +44,7 @@ fn step(c: &mut Criterion) {
                     solar_kwh: r.heat_kwh,
                     backup_kwh: 0.0,
                 });
-                black_box(route.run(&h, heat))
+                black_box(route.run(&h, Some(70.0), heat))
             })
         });
     }

@@ -38,7 +38,7 @@ fn step(c: &mut Criterion) {
                 solar_kwh: 0.7 * r.heat_kwh,
                 backup_kwh: 0.0,
             });
-            black_box(route.run(&hour, heat))
+            black_box(route.run(&hour, Some(t_top), heat))
         })
     });
 }
