@@ -246,6 +246,39 @@ pub struct Absorption {
     pub baseline: ChillerSpec,
     /// Tower approach of the baseline chiller's water, K.
     pub tower_approach_k: f64,
+    /// The last solved hour and cycle point: `run` repeats `heat_request`'s solve for the same
+    /// hour and store temperature (served from here), and each solve starts from the last
+    /// cycle point (warm start).
+    memo: Memo,
+}
+
+/// Memory of the last solve. Each option owns its route, so the lock is never contended;
+/// a fresh copy (clone) starts empty.
+#[derive(Debug, Default)]
+struct Memo(std::sync::Mutex<MemoState>);
+
+#[derive(Debug, Default, Clone, Copy)]
+struct MemoState {
+    key: Option<(usize, u64)>,
+    hour: Option<AbsorptionHour>,
+    warm: Option<CyclePoint>,
+}
+
+impl Clone for Memo {
+    fn clone(&self) -> Self {
+        Memo::default()
+    }
+}
+
+impl Memo {
+    fn get(&self) -> MemoState {
+        self.0.lock().map(|g| *g).unwrap_or_default()
+    }
+    fn set(&self, m: MemoState) {
+        if let Ok(mut g) = self.0.lock() {
+            *g = m;
+        }
+    }
 }
 
 /// Size the machine at its rating and the tower for the rated heat rejection.
@@ -264,6 +297,7 @@ pub fn build(spec: AbsorptionSpec, baseline: &ChillerSpec) -> Result<Absorption>
         tower,
         baseline: baseline.clone(),
         tower_approach_k,
+        memo: Memo::default(),
     })
 }
 
@@ -291,15 +325,21 @@ impl Absorption {
         load: f64,
         t_avail: f64,
         t_cw: f64,
+        warm: Option<&CyclePoint>,
     ) -> Result<CyclePoint> {
         let m = &self.machine;
         let t_chw = self.spec.t_chw_out_c;
-        let need = m.solve(Mode::MeetLoad { q_evap_kw: load }, t_cw, t_chw, None);
+        // A warm start that fails is retried from the design point (never a silent number).
+        let solve = |mode: Mode| {
+            m.solve(mode, t_cw, t_chw, warm)
+                .or_else(|_| m.solve(mode, t_cw, t_chw, None))
+        };
+        let need = solve(Mode::MeetLoad { q_evap_kw: load });
         match need {
             Ok(p) if p.t_hw_in_c <= t_avail => Ok(p),
             _ => {
                 let _ = c;
-                m.solve(Mode::GivenSupply { t_hw_in_c: t_avail }, t_cw, t_chw, None)
+                solve(Mode::GivenSupply { t_hw_in_c: t_avail })
             }
         }
     }
@@ -311,16 +351,38 @@ impl Absorption {
     /// Returns the route's hourly extras; never fails (a failed solve is the reason
     /// `NoSolution` with the machine off).
     pub fn solve_hour(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> AbsorptionHour {
+        let key = (c.hour, t_store_top_c.map_or(u64::MAX, f64::to_bits));
+        let memo = self.memo.get();
+        if let (Some(k), Some(h)) = (memo.key, memo.hour)
+            && k == key
+        {
+            return h;
+        }
+        let (h, warm) = self.solve_hour_from(c, t_store_top_c, memo.warm.as_ref());
+        self.memo.set(MemoState {
+            key: Some(key),
+            hour: Some(h),
+            warm: warm.or(memo.warm),
+        });
+        h
+    }
+
+    fn solve_hour_from(
+        &self,
+        c: &HourConditions,
+        t_store_top_c: Option<f64>,
+        warm: Option<&CyclePoint>,
+    ) -> (AbsorptionHour, Option<CyclePoint>) {
         let load = c.load.cooling_kw();
         if load <= 0.0 {
-            return self.off(c, AbsorptionReason::NoLoad);
+            return (self.off(c, AbsorptionReason::NoLoad), None);
         }
         let s = &self.spec;
         let t_avail = match (s.backup, t_store_top_c) {
             (Backup::Boiler, _) | (Backup::ElectricChiller, None) => s.t_supply_max_c,
             (Backup::ElectricChiller, Some(t)) => {
                 if t < s.t_supply_min_c {
-                    return self.off(c, AbsorptionReason::SupplyTooCold);
+                    return (self.off(c, AbsorptionReason::SupplyTooCold), None);
                 }
                 t.min(s.t_supply_max_c)
             }
@@ -331,18 +393,18 @@ impl Absorption {
         for _ in 0..2 {
             let t_cw = match self.tower.t_cold_c(reject, c.t_wb_c, c.p_kpa) {
                 Ok(t) => t.max(crate::routes::electric::MIN_CONDENSER_WATER_C),
-                Err(_) => return self.off(c, AbsorptionReason::NoSolution),
+                Err(_) => return (self.off(c, AbsorptionReason::NoSolution), None),
             };
-            match self.solve_at(c, cap_load, t_avail, t_cw) {
+            match self.solve_at(c, cap_load, t_avail, t_cw, p.as_ref().or(warm)) {
                 Ok(q) if q.q_evap_kw > 0.0 => {
                     reject = q.q_abs_kw + q.q_cond_kw;
                     p = Some(q);
                 }
-                _ => return self.off(c, AbsorptionReason::NoSolution),
+                _ => return (self.off(c, AbsorptionReason::NoSolution), None),
             }
         }
         let Some(p) = p else {
-            return self.off(c, AbsorptionReason::NoSolution);
+            return (self.off(c, AbsorptionReason::NoSolution), None);
         };
         let tw = self.tower.run(reject, c.t_wb_c, c.p_kpa).ok();
         let cooling = p.q_evap_kw.min(load);
@@ -359,7 +421,7 @@ impl Absorption {
         } else {
             AbsorptionReason::Ok
         };
-        AbsorptionHour {
+        let hour = AbsorptionHour {
             t_gen_in_c: p.t_hw_in_c,
             t_cw_in_c: p.t_cw_in_c,
             heat_kwh: p.q_gen_kw,
@@ -372,7 +434,8 @@ impl Absorption {
             tower_water_m3: tw.map_or(0.0, |t| t.water_m3),
             cryst_margin_k: p.cryst_margin_k,
             reason,
-        }
+        };
+        (hour, Some(p))
     }
 
     fn backup_electric(&self, rest_kw: f64, t_cw: f64) -> (f64, f64) {
