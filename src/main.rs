@@ -30,6 +30,9 @@ enum Verb {
         /// Write the JSON summary to this file, or `-` for standard output.
         #[arg(long, value_name = "FILE|-")]
         json: Option<String>,
+        /// Write the feasibility tables, assumptions and caution as Markdown to this file.
+        #[arg(long, value_name = "FILE.md")]
+        markdown: Option<PathBuf>,
         /// Also print a monthly table for each option.
         #[arg(long)]
         monthly: bool,
@@ -529,6 +532,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             scenario: path,
             hourly,
             json,
+            markdown,
             monthly,
             quiet,
         } => {
@@ -537,12 +541,22 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             if let Some(h) = &hourly {
                 refuse_input(h, &inputs)?;
             }
+            if let Some(m) = &markdown {
+                refuse_input(m, &inputs)?;
+            }
             if let Some(j) = json.as_deref().filter(|j| *j != "-") {
                 refuse_input(Path::new(j), &inputs)?;
             }
             let ev = scenario::build::evaluate(&l)?;
             if let Some(h) = &hourly {
                 write_atomic(h, &parhelion::report::hourly::render(&ev)?)?;
+            }
+            if let Some(m) = &markdown {
+                let text = parhelion::report::table::markdown(
+                    &ev,
+                    &parhelion::scenario::assumptions(&l.scenario),
+                );
+                write_atomic(m, text.as_bytes())?;
             }
             match json.as_deref() {
                 Some("-") => print(&String::from_utf8_lossy(&parhelion::report::json::render(

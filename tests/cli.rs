@@ -500,3 +500,31 @@ fn state_libr_and_fluid() {
         "unknown fluid lists the known ones"
     );
 }
+
+#[test]
+fn markdown_report_has_every_table_assumptions_and_caution() {
+    let d = tmp("md");
+    let md = d.join("r.md");
+    let o = run(&[
+        "evaluate",
+        demo_path("qasr-alvar-office").to_str().unwrap(),
+        "--markdown",
+        md.to_str().unwrap(),
+        "--quiet",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let t = std::fs::read_to_string(&md).unwrap();
+    for s in [
+        "## Cooling over the year",
+        "## Solar heat and backup over the year",
+        "## Energy, emissions and water against the reference",
+        "## Money",
+        "## Assumptions",
+        "## Caution",
+        "|-----",
+        "Legionella",
+    ] {
+        assert!(t.contains(s), "Markdown lacks {s}");
+    }
+    std::fs::remove_dir_all(&d).unwrap();
+}

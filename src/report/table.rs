@@ -1,7 +1,16 @@
 //! Terminal tables (comfy-table), options as rows, units in headers.
 
 use crate::feasibility::{Evaluation, Totals};
-use comfy_table::{Cell, CellAlignment, ContentArrangement, Table, presets::UTF8_FULL_CONDENSED};
+use comfy_table::{
+    Cell, CellAlignment, ContentArrangement, Table,
+    presets::{ASCII_MARKDOWN, UTF8_FULL_CONDENSED},
+};
+use std::cell::Cell as StdCell;
+
+thread_local! {
+    /// Markdown tables instead of terminal ones (set for the duration of one render).
+    static MARKDOWN: StdCell<bool> = const { StdCell::new(false) };
+}
 
 fn mwh(x: f64) -> String {
     format!("{:.1}", x / 1000.0)
@@ -15,9 +24,18 @@ fn pct(x: Option<f64>) -> String {
 
 fn new_table(header: &[&str]) -> Table {
     let mut t = Table::new();
-    t.load_preset(UTF8_FULL_CONDENSED)
-        .set_content_arrangement(ContentArrangement::Dynamic)
-        .set_header(header.iter().map(Cell::new));
+    let md = MARKDOWN.with(StdCell::get);
+    t.load_preset(if md {
+        ASCII_MARKDOWN
+    } else {
+        UTF8_FULL_CONDENSED
+    })
+    .set_content_arrangement(if md {
+        ContentArrangement::Disabled
+    } else {
+        ContentArrangement::Dynamic
+    })
+    .set_header(header.iter().map(Cell::new));
     t
 }
 
@@ -196,6 +214,41 @@ pub fn feasibility(ev: &Evaluation) -> String {
         }
     }
     out.push_str(&format!("\n{}\n", crate::SCREENING_CAUTION));
+    out
+}
+
+/// The same tables as [`feasibility`] as Markdown for a report: a heading per table, the
+/// assumptions the caller lists, and the caution.
+pub fn markdown(ev: &Evaluation, assumptions: &[String]) -> String {
+    MARKDOWN.with(|m| m.set(true));
+    let body = feasibility(ev);
+    MARKDOWN.with(|m| m.set(false));
+    let mut out = String::new();
+    let mut first = true;
+    for line in body.lines() {
+        let is_table = line.starts_with('|');
+        if !is_table && !line.trim().is_empty() {
+            if first {
+                out.push_str(&format!("# {line}\n\n"));
+                first = false;
+            } else if line.starts_with("weather:") || line.starts_with("load:") {
+                out.push_str(&format!("- {line}\n"));
+            } else if line.starts_with("Screening estimate") {
+                out.push_str(&format!("\n## Caution\n\n{line}\n"));
+            } else {
+                out.push_str(&format!("\n## {line}\n\n"));
+            }
+        } else if is_table {
+            out.push_str(line);
+            out.push('\n');
+        }
+    }
+    if !assumptions.is_empty() {
+        out.push_str("\n## Assumptions\n\n");
+        for a in assumptions {
+            out.push_str(&format!("- {a}\n"));
+        }
+    }
     out
 }
 

@@ -61,3 +61,44 @@ pub fn from_str(file: &str, text: &str) -> Result<Scenario> {
     check::check(&scenario, file)?;
     Ok(scenario)
 }
+
+/// The assumptions a report lists: the scenario's factors and prices, and the fixed choices of
+/// the method that a reader should know.
+pub fn assumptions(s: &Scenario) -> Vec<String> {
+    let e = &s.energy;
+    let mut v = vec![
+        format!(
+            "Primary energy factors: electricity {}, fuel {}; CO2 {} kg/kWh electricity, {} kg/kWh fuel (scenario values; defaults indicative).",
+            e.pe_factor_electricity, e.pe_factor_fuel, e.co2_kg_per_kwh_electricity, e.co2_kg_per_kwh_fuel
+        ),
+        "Solar fraction = solar heat used / all driving heat used (route and heat demand).".into(),
+        format!(
+            "Weather: {:?}; building load: {:?}; site latitude {}°, longitude {}°, elevation {} m.",
+            s.weather.source, s.load.source, s.site.latitude_deg, s.site.longitude_deg, s.site.elevation_m
+        ),
+        format!(
+            "Reference chiller: {} kW, rated COP {} ({:?}); kept as backup in every option's capital cost.",
+            s.baseline.capacity_kw, s.baseline.cop_rated, s.baseline.condenser
+        ),
+        "Water-cooled plants reject heat through a counterflow tower (effectiveness–NTU); water = evaporation + blow-down.".into(),
+    ];
+    match &s.economics {
+        Some(m) => {
+            v.push(format!(
+                "Money in {}: discount rate {} (real), lifetime {} years, electricity {} per kWh{}, fuel {} per kWh, water {} per m³, export {} per kWh, demand charge {} per kW-month.",
+                m.currency,
+                m.discount_rate,
+                m.lifetime_years,
+                m.electricity_price_per_kwh.map_or("(time-of-use table)".to_string(), |p| p.to_string()),
+                if m.tou.is_some() { " (time of use)" } else { "" },
+                m.fuel_price_per_kwh,
+                m.water_price_per_m3,
+                m.export_price_per_kwh,
+                m.demand_charge_per_kw_month
+            ));
+            v.push("Cost functions are INDICATIVE defaults unless the scenario sets them; they are not quotes.".into());
+        }
+        None => v.push("No [economics] section: no money figures.".into()),
+    }
+    v
+}
