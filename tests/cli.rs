@@ -528,3 +528,14 @@ fn markdown_report_has_every_table_assumptions_and_caution() {
     }
     std::fs::remove_dir_all(&d).unwrap();
 }
+
+#[test]
+fn glycol_loop_needs_a_heat_exchanger() {
+    let t = demo_text()
+        .replace("fluid = \"water\" ", "fluid = \"propylene-glycol\" ")
+        .replace(
+            "hx_effectiveness = 0.8     # 0..1 loop heat exchanger (omit for a direct loop)\n",
+            "",
+        );
+    assert_bad("glycol", &t, &["field.fluid", "hx_effectiveness"]);
+}

@@ -53,7 +53,35 @@ pub fn checks() -> Result<Vec<Check>> {
     tank_charge(&mut out)?;
     tank_balance(&mut out);
     pcm(&mut out);
+    glycol(&mut out)?;
     Ok(out)
+}
+
+/// Propylene glycol table interpolation against CoolProp between the grid lines.
+fn glycol(out: &mut Vec<Check>) -> Result<()> {
+    const T: &str = "glycol_check_coolprop.csv";
+    for row in parse(T, include_str!("../../reference/glycol_check_coolprop.csv"))? {
+        let (x, t) = (row.f64("mass_fraction")?, row.f64("t_c")?);
+        let (rho, cp) = crate::props::glycol::properties(t, x)?;
+        let q = row.str("quantity")?;
+        let value = match q {
+            "rho_kg_m3" => rho,
+            "cp_j_kgk" => cp,
+            other => {
+                return Err(Error::Internal(format!(
+                    "reference/{T}: unknown quantity {other}"
+                )));
+            }
+        };
+        out.push(super::table::check(
+            "glycol",
+            T,
+            format!("propylene glycol x = {x}, {t} °C, {q}"),
+            value,
+            &row,
+        )?);
+    }
+    Ok(())
 }
 
 fn if97(out: &mut Vec<Check>) -> Result<()> {

@@ -63,8 +63,10 @@ pub struct SolarLoop {
     pub t_max_c: f64,
     /// Plant room, °C.
     pub t_room_c: f64,
-    /// Specific heat of the store water and loop fluid, J/(kg·K).
+    /// Specific heat of the store water, J/(kg·K).
     pub cp_j_kgk: f64,
+    /// Specific heat of the collector-loop fluid (water or glycol), J/(kg·K).
+    pub cp_loop_j_kgk: f64,
     /// The store at the start of the year.
     pub store: Store,
 }
@@ -324,7 +326,12 @@ fn collector_loop(
                 t_ci = next;
                 o = run(t_ci);
             }
-            (o.flow_kg_s, t_store_c + eff * (o.t_out_c - t_store_c))
+            // The store side runs at the same capacity rate: its water flow is the loop's
+            // scaled by the ratio of specific heats.
+            (
+                o.flow_kg_s * s.cp_loop_j_kgk / s.cp_j_kgk,
+                t_store_c + eff * (o.t_out_c - t_store_c),
+            )
         }
     }
 }

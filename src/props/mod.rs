@@ -3,6 +3,7 @@
 
 pub mod cubic;
 pub mod fluids;
+pub mod glycol;
 pub mod libr;
 pub mod psychro;
 pub mod water;

@@ -465,12 +465,21 @@ fn solar_loop(
         water::liquid_cp_j_kgk(t_design, st.pressure_kpa).map_err(|e| e.within("", "storage"))?;
     let rho = water::liquid_density_kg_m3(t_design, st.pressure_kpa)
         .map_err(|e| e.within("", "storage"))?;
+    // Loop fluid at the store's mean working temperature (glycol data reach 100 °C).
+    let cp_loop = match f.fluid {
+        Fluid::Water => cp,
+        Fluid::PropyleneGlycol => {
+            crate::props::glycol::properties(t_design.min(100.0), f.glycol_mass_fraction)
+                .map_err(|e| e.within("", "field"))?
+                .1
+        }
+    };
     let field = Field {
         collector,
         in_series: f.in_series,
         rows: modules / f.in_series,
         flow_kg_s_m2: f.flow_kg_s_m2,
-        cp_j_kgk: cp,
+        cp_j_kgk: cp_loop,
         pipe: Pipe {
             length_m: f.pipe_length_m,
             ua_w_mk: f.pipe_loss_w_mk,
@@ -547,6 +556,7 @@ fn solar_loop(
             t_max_c: st.t_max_c,
             t_room_c: st.t_room_c,
             cp_j_kgk: cp,
+            cp_loop_j_kgk: cp_loop,
             store,
         },
         gross,

@@ -469,6 +469,22 @@ fn field(s: &Scenario, f: &FieldSection) -> Result<()> {
         5.0,
         "pipe heat loss per metre and kelvin, W/(m·K)",
     )?;
+    if f.fluid == Fluid::PropyleneGlycol {
+        in_range(
+            "glycol_mass_fraction",
+            f.glycol_mass_fraction,
+            0.25,
+            0.5,
+            "propylene glycol mass fraction of the loop fluid",
+        )?;
+        if f.hx_effectiveness.is_none() {
+            return Err(Error::input(
+                "fluid",
+                "\"propylene-glycol\"",
+                "a glycol loop is separated from the store by a heat exchanger: give hx_effectiveness",
+            ));
+        }
+    }
     if let Some(e) = f.hx_effectiveness {
         open_range(
             "hx_effectiveness",

@@ -292,6 +292,9 @@ fn default_pv_b0() -> f64 {
 #[serde(rename_all = "kebab-case")]
 pub enum Fluid {
     Water,
+    /// Aqueous propylene glycol (antifreeze), of mass fraction `glycol_mass_fraction`; needs
+    /// an indirect loop (`hx_effectiveness`).
+    PropyleneGlycol,
 }
 
 /// `[options.NAME.field]`: the collector field.
@@ -315,6 +318,9 @@ pub struct FieldSection {
     pub sky_model: SkyModel,
     #[serde(default = "water")]
     pub fluid: Fluid,
+    /// Glycol mass fraction of a `propylene-glycol` loop, 0.25–0.50.
+    #[serde(default = "default_glycol")]
+    pub glycol_mass_fraction: f64,
     /// Collector-loop mass flow per m² of collector (on its area basis), kg/(s·m²).
     #[serde(default = "default_flow")]
     pub flow_kg_s_m2: f64,
@@ -351,6 +357,9 @@ fn perez() -> SkyModel {
 }
 fn water() -> Fluid {
     Fluid::Water
+}
+fn default_glycol() -> f64 {
+    0.3
 }
 fn default_flow() -> f64 {
     0.02
