@@ -477,6 +477,8 @@ struct Ctx {
     /// Supply temperature leaving the supply cooler that meets the sensible load, °C.
     t_dec_target_c: f64,
     t_room_c: f64,
+    /// Room humidity ratio the plant holds, kg/kg.
+    w_room_kg_kg: f64,
     sensible_load_kw: f64,
 }
 
@@ -560,6 +562,7 @@ impl Desiccant {
             heat_wheel_on,
             t_dec_target_c: t_need - fan_rise_k,
             t_room_c: room.t_c,
+            w_room_kg_kg: room.w_kg_kg,
             sensible_load_kw: q_s,
         })
     }
@@ -639,6 +642,25 @@ impl Desiccant {
                         ((s3.t_c - t_target) / (s3.t_c - t_wb3)).clamp(0.0, self.evap_supply.eps);
                     s4 = self.evap_supply.run(s3, t_wb3, eps_dec)?.air;
                     t_target = self.t_dec_target(x, s4.w_kg_kg);
+                }
+                // Never humidify the supply above the room's humidity: moisture added here is
+                // a latent load the backup chiller would have to remove again (in humid
+                // climates that costs more than the sensible cooling gained). W rises close to
+                // linearly with the effectiveness along the wet-bulb line, so one proportional
+                // cut and a re-run lands at or just below the room's W.
+                if s4.w_kg_kg > x.w_room_kg_kg && eps_dec > 0.0 {
+                    let room_w_headroom = (x.w_room_kg_kg - s3.w_kg_kg).max(0.0);
+                    let added = s4.w_kg_kg - s3.w_kg_kg;
+                    eps_dec = if added > 0.0 {
+                        eps_dec * (room_w_headroom / added).min(1.0)
+                    } else {
+                        0.0
+                    };
+                    s4 = if eps_dec > 0.0 {
+                        self.evap_supply.run(s3, t_wb3, eps_dec)?.air
+                    } else {
+                        s3
+                    };
                 }
             }
         }
