@@ -58,6 +58,10 @@ pub enum Inlet {
     /// collector loop's return always draws from the bottom, and lukewarm collector water never
     /// stirs the hot top.
     StratifiedCharge,
+    /// Return stratifier for a draw: whatever its temperature, the return enters the lowest
+    /// node warmer than itself (the top node if none is), flows up and leaves from the top — a
+    /// warm return never heats the bottom the collector loop draws from.
+    StratifiedReturn,
 }
 
 /// A stream through the tank during a step: `flow_kg_s` enters at `inlet` at `t_in_c`; the same
@@ -433,7 +437,7 @@ impl Tank {
     fn outlet_node_temp(&self, s: &Stream) -> f64 {
         let down = match s.inlet {
             Inlet::Top | Inlet::StratifiedCharge => true,
-            Inlet::Bottom => false,
+            Inlet::Bottom | Inlet::StratifiedReturn => false,
             Inlet::Stratified => !s.t_in_c.is_finite() || s.t_in_c >= self.t_mean_c(),
         };
         if down {
@@ -623,11 +627,12 @@ mod tests {
     }
 
     fn inlet_of(i: u8) -> Inlet {
-        match i % 4 {
+        match i % 5 {
             0 => Inlet::Top,
             1 => Inlet::Bottom,
             2 => Inlet::Stratified,
-            _ => Inlet::StratifiedCharge,
+            3 => Inlet::StratifiedCharge,
+            _ => Inlet::StratifiedReturn,
         }
     }
 
