@@ -68,6 +68,9 @@ fn inline_md(s: &str) -> String {
     out
 }
 
+/// One option's cumulative discounted saving, years 0..=lifetime, money.
+pub type SavingsLine = (String, Vec<f64>);
+
 /// Cumulative discounted saving of each option against the reference over the lifetime.
 ///
 /// For each option other than the reference: `S_k = Σ_{t=0..k} (C_ref,t − C_opt,t) / (1+r)^t`,
@@ -86,7 +89,7 @@ fn inline_md(s: &str) -> String {
 pub fn cumulative_discounted_savings(
     s: &Scenario,
     ev: &Evaluation,
-) -> Result<Option<Vec<(String, Vec<f64>)>>> {
+) -> Result<Option<Vec<SavingsLine>>> {
     let Some(e) = &s.economics else {
         return Ok(None);
     };
@@ -260,7 +263,11 @@ fn chart_monthly_cooling(ev: &Evaluation) -> String {
     let top = ev
         .options
         .iter()
-        .flat_map(|o| o.monthly.iter().map(|m| (m.cooling_kwh + m.unmet_kwh) / 1000.0))
+        .flat_map(|o| {
+            o.monthly
+                .iter()
+                .map(|m| (m.cooling_kwh + m.unmet_kwh) / 1000.0)
+        })
         .fold(0.0, f64::max);
     let ax = nice_axis(0.0, top);
     let mut s = svg_open(CHARTS[0], h, "monthly cooling by source per option");
@@ -344,8 +351,14 @@ fn chart_monthly_solar_fraction(ev: &Evaluation) -> String {
         );
     }
     let mut k = 0usize;
-    for o in ev.options.iter().filter(|o| o.gross_m2 > 0.0) {
-        let c = PALETTE[k % PALETTE.len()];
+    for (idx, o) in ev
+        .options
+        .iter()
+        .enumerate()
+        .filter(|(_, o)| o.gross_m2 > 0.0)
+    {
+        // Colours by the option's position in the evaluation, as in charts 4 and 5.
+        let c = PALETTE[idx % PALETTE.len()];
         let mut path = String::new();
         let mut pen_up = true;
         for (m, t) in o.monthly.iter().enumerate() {
@@ -398,7 +411,11 @@ fn ramp(f: f64) -> String {
         (94.0, 201.0, 98.0),
         (253.0, 231.0, 37.0),
     ];
-    let f = if f.is_finite() { f.clamp(0.0, 1.0) } else { 0.0 };
+    let f = if f.is_finite() {
+        f.clamp(0.0, 1.0)
+    } else {
+        0.0
+    };
     let x = f * 4.0;
     let i = (x.floor() as usize).min(3);
     let u = x - i as f64;
@@ -450,7 +467,7 @@ fn chart_heat_map(s: &Scenario, ev: &Evaluation) -> (String, String) {
         (0.0, lo.max(0.0) + 1.0)
     };
     let (x0, y0) = (60.0, 20.0);
-    let (cw, chh) = (2.4, 11.0);
+    let (cw, chh) = (2.2, 11.0);
     let days = o.hours.len() / 24;
     for (i, v) in vals.iter().enumerate() {
         let (d, hr) = (i / 24, i % 24);
@@ -569,8 +586,16 @@ fn bar_panel(out: &mut String, ev: &Evaluation, px: f64, title: &str, vals: &[Op
 /// (4) Annualised cost and primary energy per option, side by side.
 fn chart_cost_energy(ev: &Evaluation) -> String {
     let h = 80.0 + 30.0 * ev.options.len() as f64;
-    let mut s = svg_open(CHARTS[3], h, "annualised cost and primary energy per option");
-    let money: Vec<Option<f64>> = ev.options.iter().map(|o| o.annual.annualised_cost).collect();
+    let mut s = svg_open(
+        CHARTS[3],
+        h,
+        "annualised cost and primary energy per option",
+    );
+    let money: Vec<Option<f64>> = ev
+        .options
+        .iter()
+        .map(|o| o.annual.annualised_cost)
+        .collect();
     if money.iter().any(Option::is_some) {
         bar_panel(
             &mut s,
@@ -596,9 +621,13 @@ fn chart_cost_energy(ev: &Evaluation) -> String {
 }
 
 /// (5) Cumulative discounted saving against the reference over the lifetime (lines).
-fn chart_cash_flow(ev: &Evaluation, cum: Option<&[(String, Vec<f64>)]>) -> String {
+fn chart_cash_flow(ev: &Evaluation, cum: Option<&[SavingsLine]>) -> String {
     let h = 340.0;
-    let mut s = svg_open(CHARTS[4], h, "cumulative discounted cash flow against the reference");
+    let mut s = svg_open(
+        CHARTS[4],
+        h,
+        "cumulative discounted cash flow against the reference",
+    );
     let Some(cum) = cum.filter(|c| !c.is_empty()) else {
         s.push_str(
             "<text x=\"70\" y=\"60\">no [economics] section (or no reference option): no cash flow</text></svg>",
@@ -607,8 +636,14 @@ fn chart_cash_flow(ev: &Evaluation, cum: Option<&[(String, Vec<f64>)]>) -> Strin
     };
     let (x0, x1, y0, y1) = (80.0, W - 220.0, 30.0, h - 44.0);
     let years = cum.iter().map(|(_, v)| v.len()).max().unwrap_or(1).max(2) - 1;
-    let lo = cum.iter().flat_map(|(_, v)| v).fold(0.0, |a: f64, b| a.min(*b));
-    let hi = cum.iter().flat_map(|(_, v)| v).fold(0.0, |a: f64, b| a.max(*b));
+    let lo = cum
+        .iter()
+        .flat_map(|(_, v)| v)
+        .fold(0.0, |a: f64, b| a.min(*b));
+    let hi = cum
+        .iter()
+        .flat_map(|(_, v)| v)
+        .fold(0.0, |a: f64, b| a.max(*b));
     let ax = nice_axis(lo, hi);
     y_axis(&mut s, &ax, x0, x1, y0, y1, &ev.currency);
     let xa = nice_axis(0.0, years as f64);
@@ -789,6 +824,7 @@ th,td{border:1px solid var(--rule);padding:3px 4px;overflow-wrap:anywhere;word-w
 table.figures{font-size:12px}
 table.figures th{background:#f1f4f8;font-weight:600;text-align:left}
 table.figures th:first-child,table.figures td:first-child{width:15%}
+table.counts{width:auto;min-width:360px;max-width:100%}
 td.num{text-align:right;font-variant-numeric:tabular-nums}
 table.method{font-size:12px}
 table.method td:first-child,table.method th:first-child{width:16%}
@@ -869,7 +905,10 @@ pub fn render(ev: &Evaluation, s: &Scenario, checks: &[Check]) -> Result<String>
          <section id=\"charts\"><h2>Charts</h2>"
     );
     let figure = |h: &mut String, svg: &str, caption: &str| {
-        let _ = write!(h, "<figure class=\"chart\">{svg}<figcaption>{caption}</figcaption></figure>");
+        let _ = write!(
+            h,
+            "<figure class=\"chart\">{svg}<figcaption>{caption}</figcaption></figure>"
+        );
     };
     figure(
         &mut h,
@@ -932,14 +971,14 @@ pub fn render(ev: &Evaluation, s: &Scenario, checks: &[Check]) -> Result<String>
     let _ = write!(
         h,
         "<p>{p} of {} reference checks pass (model value within the tolerance of a published or \
-         library value; `parhelion checks` lists each).</p>{}",
+         library value; <code>parhelion checks</code> lists each).</p>{}",
         p + f,
-        html_table(&rows, "figures")
+        html_table(&rows, "figures counts")
     );
-    let _ = write!(
+    let _ = writeln!(
         h,
         "</section><section id=\"caution-end\"><h2>Caution</h2><p class=\"caution\">{caution}</p>\
-         </section>{OVERFLOW_SCRIPT}</body></html>\n"
+         </section>{OVERFLOW_SCRIPT}</body></html>"
     );
     Ok(h)
 }
@@ -969,7 +1008,10 @@ mod tests {
         assert_eq!(ramp(1.0), "#fde725");
         assert_eq!(ramp(f64::NAN), "#440154");
         assert_eq!(esc("a<b & \"c\""), "a&lt;b &amp; &quot;c&quot;");
-        assert_eq!(inline_md("vs `grid` *x*"), "vs <code>grid</code> <em>x</em>");
+        assert_eq!(
+            inline_md("vs `grid` *x*"),
+            "vs <code>grid</code> <em>x</em>"
+        );
     }
 
     #[test]

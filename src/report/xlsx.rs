@@ -16,7 +16,11 @@ type Field = (&'static str, fn(&Totals) -> Option<f64>, &'static str);
 const FIELDS: [Field; 34] = [
     ("load kWh", |t| Some(t.load_kwh), "#,##0"),
     ("cooling kWh", |t| Some(t.cooling_kwh), "#,##0"),
-    ("by backup chiller kWh", |t| Some(t.backup_cooling_kwh), "#,##0"),
+    (
+        "by backup chiller kWh",
+        |t| Some(t.backup_cooling_kwh),
+        "#,##0",
+    ),
     ("unmet kWh", |t| Some(t.unmet_kwh), "#,##0"),
     ("unmet h", |t| Some(f64::from(t.unmet_hours)), "0"),
     ("electricity kWh", |t| Some(t.electricity_kwh), "#,##0"),
@@ -41,7 +45,11 @@ const FIELDS: [Field; 34] = [
     ("CO2 savings", |t| t.co2_savings_fraction, "0.0%"),
     ("peak electric kW", |t| t.peak_electric_kw, "#,##0.0"),
     ("peak cut kW", |t| t.peak_reduction_kw, "#,##0.0"),
-    ("water m³/MWh cooling", |t| t.water_m3_per_mwh_cooling, "0.00"),
+    (
+        "water m³/MWh cooling",
+        |t| t.water_m3_per_mwh_cooling,
+        "0.00",
+    ),
     ("capital", |t| t.capex, "#,##0"),
     ("energy bill /yr", |t| t.annual_energy_cost, "#,##0"),
     ("annualised cost /yr", |t| t.annualised_cost, "#,##0"),
