@@ -33,6 +33,12 @@ enum Verb {
         /// Write the feasibility tables, assumptions and caution as Markdown to this file.
         #[arg(long, value_name = "FILE.md")]
         markdown: Option<PathBuf>,
+        /// Write the spreadsheet (annual, monthly, hourly, assumptions, caution sheets).
+        #[arg(long, value_name = "FILE.xlsx")]
+        xlsx: Option<PathBuf>,
+        /// Write the self-contained HTML report with tables and charts.
+        #[arg(long, value_name = "FILE.html")]
+        report: Option<PathBuf>,
         /// Also print a monthly table for each option.
         #[arg(long)]
         monthly: bool,
@@ -533,6 +539,8 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             hourly,
             json,
             markdown,
+            xlsx,
+            report,
             monthly,
             quiet,
         } => {
@@ -541,8 +549,8 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             if let Some(h) = &hourly {
                 refuse_input(h, &inputs)?;
             }
-            if let Some(m) = &markdown {
-                refuse_input(m, &inputs)?;
+            for f in [&markdown, &xlsx, &report].into_iter().flatten() {
+                refuse_input(f, &inputs)?;
             }
             if let Some(j) = json.as_deref().filter(|j| *j != "-") {
                 refuse_input(Path::new(j), &inputs)?;
@@ -557,6 +565,18 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                     &parhelion::scenario::assumptions(&l.scenario),
                 );
                 write_atomic(m, text.as_bytes())?;
+            }
+            if let Some(x) = &xlsx {
+                let bytes = parhelion::report::xlsx::render(
+                    &ev,
+                    &parhelion::scenario::assumptions(&l.scenario),
+                )?;
+                write_atomic(x, &bytes)?;
+            }
+            if let Some(r) = &report {
+                let checks = parhelion::checks::run_all()?;
+                let html = parhelion::report::html::render(&ev, &l.scenario, &checks)?;
+                write_atomic(r, html.as_bytes())?;
             }
             match json.as_deref() {
                 Some("-") => print(&String::from_utf8_lossy(&parhelion::report::json::render(

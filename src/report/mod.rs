@@ -4,7 +4,9 @@
 pub mod checks;
 pub mod files;
 pub mod hourly;
+pub mod html;
 pub mod json;
 pub mod state;
 pub mod table;
 pub mod weather;
+pub mod xlsx;
