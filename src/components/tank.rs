@@ -418,6 +418,10 @@ impl Tank {
                     .unwrap_or(n - 1);
                 (k, true)
             }
+            Inlet::StratifiedReturn => {
+                let k = self.t_c[..n].iter().rposition(|&t| t > t_in_c).unwrap_or(0);
+                (k, false)
+            }
             Inlet::Stratified => {
                 if t_in_c >= t_mean_c {
                     let k = self.t_c[..n]

@@ -110,11 +110,12 @@ pub fn charge(flow_kg_s: f64, t_in_c: f64) -> Stream {
     }
 }
 
-/// A draw: the cooler return enters at the bottom and hot water leaves at the top.
+/// A draw: hot water leaves at the top; the return enters through a stratifier at the node
+/// that matches its temperature (a warm return never heats the bottom).
 pub fn draw(flow_kg_s: f64, t_return_c: f64) -> Stream {
     Stream {
         flow_kg_s,
         t_in_c: t_return_c,
-        inlet: Inlet::Bottom,
+        inlet: Inlet::StratifiedReturn,
     }
 }
