@@ -76,6 +76,7 @@ fn evaluate_demo_prints_table_and_writes_files() {
     let out = String::from_utf8_lossy(&o.stdout);
     for s in [
         "NPV vs ref",
+        "Ranking:",
         "PE savings %",
         "grid-chiller",
         "grid-chiller-solar-dhw",

@@ -213,8 +213,77 @@ pub fn feasibility(ev: &Evaluation) -> String {
             ));
         }
     }
+    out.push_str(&ranking(ev));
     out.push_str(&format!("\n{}\n", crate::SCREENING_CAUTION));
     out
+}
+
+/// Which option wins on each criterion, with its figure and the difference from the
+/// reference: the reason, in numbers. Options with unmet load above the reference's are not
+/// ranked (they do less).
+fn ranking(ev: &Evaluation) -> String {
+    let Some(r) = ev.options.iter().find(|o| o.option == ev.reference) else {
+        return String::new();
+    };
+    let eligible: Vec<_> = ev
+        .options
+        .iter()
+        .filter(|o| o.annual.unmet_kwh <= r.annual.unmet_kwh + 1e-6 * r.annual.load_kwh.max(1.0))
+        .collect();
+    type Get = fn(&crate::feasibility::Totals) -> Option<f64>;
+    let cur = ev.currency.clone();
+    let criteria: [(&str, String, Get, f64); 4] = [
+        (
+            "cost",
+            format!("annualised cost, {cur}/yr"),
+            |a| a.annualised_cost,
+            1.0,
+        ),
+        (
+            "primary energy",
+            "primary energy, MWh/yr".into(),
+            |a| a.primary_energy_kwh,
+            1e-3,
+        ),
+        ("emissions", "CO2, t/yr".into(), |a| a.co2_kg, 1e-3),
+        ("water", "water, m³/yr".into(), |a| Some(a.water_m3), 1.0),
+    ];
+    let mut t = new_table(&[
+        "criterion",
+        "best option",
+        "its figure",
+        "reference figure",
+        "difference",
+    ]);
+    let mut any = false;
+    for (name, unit, get, scale) in criteria {
+        let best = eligible
+            .iter()
+            .filter_map(|o| get(&o.annual).map(|v| (o, v)))
+            .min_by(|a, b| a.1.total_cmp(&b.1));
+        if let (Some((o, v)), Some(rv)) = (best, get(&r.annual)) {
+            any = true;
+            t.add_row(vec![
+                format!("{name} ({unit})"),
+                o.option.clone(),
+                format!("{:.1}", v * scale),
+                format!("{:.1}", rv * scale),
+                if rv.abs() > 0.0 {
+                    format!("{:+.1} %", 100.0 * (v - rv) / rv)
+                } else {
+                    format!("{:+.1}", (v - rv) * scale)
+                },
+            ]);
+        }
+    }
+    if !any {
+        return String::new();
+    }
+    right(&mut t, 2);
+    format!(
+        "\nRanking: the best option on each criterion, against the reference `{}`\n{t}\n",
+        ev.reference
+    )
 }
 
 /// The same tables as [`feasibility`] as Markdown for a report: a heading per table, the
