@@ -151,7 +151,7 @@ fn json_to_stdout() {
     ]);
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
-    assert_eq!(v["options"].as_array().unwrap().len(), 6);
+    assert_eq!(v["options"].as_array().unwrap().len(), 7);
 }
 
 #[test]
