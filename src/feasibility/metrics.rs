@@ -13,12 +13,6 @@ use super::{Evaluation, OptionResult};
 use crate::error::Result;
 use crate::scenario::schema::Scenario;
 
-/// What an option is made of, for its capital cost.
-#[derive(Debug, Clone, Copy, Default)]
-pub struct OptionSizes {
-    pub sizes: Sizes,
-}
-
 /// Sizes of an option from its results and scenario section: collectors, store, the baseline
 /// chiller (kept as backup in every option, common practice in solar-cooling screening), the
 /// heat-driven machine at the peak cooling it delivered itself, a tower at the peak heat

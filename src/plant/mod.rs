@@ -335,13 +335,3 @@ fn collector_loop(
         }
     }
 }
-
-/// Simulate several options; results in the same order.
-pub fn simulate_all(opts: &[PlantOption], y: &YearInputs) -> Vec<Vec<HourRecord>> {
-    opts.iter().map(|o| simulate(o, y)).collect()
-}
-
-/// Route results for a bare route with no store (used by checks).
-pub fn route_only(route: &dyn Route, c: &HourConditions) -> RouteHour {
-    route.run(c, None, None)
-}

@@ -300,6 +300,27 @@ pub struct BuiltOption {
     pub store_m3: Option<f64>,
 }
 
+/// Irradiance on a (fixed or tracking) plane for every hour of the prepared year.
+fn plane_year(
+    p: &Prepared,
+    tracking: crate::sun::incidence::Tracking,
+    fixed: Plane,
+    sky: SkyModel,
+    albedo: f64,
+) -> Vec<crate::sun::sky::PlaneIrradiance> {
+    p.weather
+        .hours
+        .iter()
+        .zip(&p.sun)
+        .map(|(h, sun)| {
+            let (plane, aoi) = track(tracking, fixed, sun);
+            plane_irradiance(
+                sky, plane, aoi, sun, h.ghi_w_m2, h.dni_w_m2, h.dhi_w_m2, albedo,
+            )
+        })
+        .collect()
+}
+
 fn missing(key: &str, route: RouteKind) -> Error {
     Error::input(
         key,
@@ -366,23 +387,11 @@ fn build_route(
                 tilt_deg: pv.tilt_deg,
                 azimuth_deg: pv.azimuth_deg,
             };
-            let pv_ac_kwh = p
-                .weather
-                .hours
+            let pv_ac_kwh = plane_year(p, pv.tracking, fixed, pv.sky_model, s.site.ground_albedo)
                 .iter()
-                .zip(&p.sun)
-                .map(|(h, sun)| {
-                    let (plane, aoi) = track(pv.tracking, fixed, sun);
-                    let g = plane_irradiance(
-                        pv.sky_model,
-                        plane,
-                        aoi,
-                        sun,
-                        h.ghi_w_m2,
-                        h.dni_w_m2,
-                        h.dhi_w_m2,
-                        s.site.ground_albedo,
-                    );
+                .zip(&p.weather.hours)
+                .map(|(g, h)| {
+                    let aoi = g.aoi_deg;
                     // Beam through the glass by the one-parameter IAM (ASHRAE form).
                     let k = if aoi < 90.0 {
                         (1.0 - pv.iam_b0 * (1.0 / aoi.to_radians().cos() - 1.0)).clamp(0.0, 1.0)
@@ -525,25 +534,7 @@ fn solar_loop(
         tilt_deg: f.tilt_deg,
         azimuth_deg: f.azimuth_deg,
     };
-    let poa = p
-        .weather
-        .hours
-        .iter()
-        .zip(&p.sun)
-        .map(|(h, sun)| {
-            let (plane, aoi) = track(f.tracking, fixed, sun);
-            plane_irradiance(
-                f.sky_model,
-                plane,
-                aoi,
-                sun,
-                h.ghi_w_m2,
-                h.dni_w_m2,
-                h.dhi_w_m2,
-                s.site.ground_albedo,
-            )
-        })
-        .collect();
+    let poa = plane_year(p, f.tracking, fixed, f.sky_model, s.site.ground_albedo);
     let gross = field.gross_m2();
     Ok((
         SolarLoop {
