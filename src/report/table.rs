@@ -124,6 +124,7 @@ pub fn feasibility(ev: &Evaluation) -> String {
         ev.weather_origin,
         ev.load_origin
     );
+    out.push_str(&reason_hours(ev));
     if let Some(r) = ev.options.iter().find(|o| o.option == ev.reference) {
         let mut diff = new_table(&[
             "option",
@@ -216,6 +217,39 @@ pub fn feasibility(ev: &Evaluation) -> String {
     out.push_str(&ranking(ev));
     out.push_str(&format!("\n{}\n", crate::SCREENING_CAUTION));
     out
+}
+
+/// Hours of the year by reason code, one column per code that occurred in any option (the
+/// guards that limited each route: capacity, supply too cold, crystallisation margin, …);
+/// `no-load` hours are left out.
+fn reason_hours(ev: &Evaluation) -> String {
+    let mut codes: Vec<&'static str> = Vec::new();
+    for o in &ev.options {
+        for k in o.annual.reason_hours.keys() {
+            if *k != "no-load" && !codes.contains(k) {
+                codes.push(k);
+            }
+        }
+    }
+    // "ok" first, the rest in the order of the reason list's codes (alphabetical here).
+    codes.sort_by_key(|c| (*c != "ok", *c));
+    let mut header = vec!["option"];
+    header.extend(codes.iter().copied());
+    let mut t = new_table(&header);
+    for o in &ev.options {
+        let mut row = vec![o.option.clone()];
+        row.extend(codes.iter().map(|c| {
+            o.annual
+                .reason_hours
+                .get(c)
+                .copied()
+                .unwrap_or(0)
+                .to_string()
+        }));
+        t.add_row(row);
+    }
+    right(&mut t, 1);
+    format!("\nHours by reason code (hours with a cooling load; codes in README)\n{t}\n")
 }
 
 /// Which option wins on each criterion, with its figure and the difference from the

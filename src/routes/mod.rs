@@ -72,7 +72,8 @@ pub enum Reason {
     CapacityLimit,
     /// Absorption: store below the lowest workable supply; the backup chiller carried the hour.
     SupplyTooCold,
-    /// Absorption: strong solution within the crystallisation margin (hour flagged).
+    /// Absorption: generator supply lowered (capacity limited) to keep the strong solution's
+    /// crystallisation margin; the backup carried the rest.
     CrystallisationMargin,
     /// A machine's solve found no operating point (no refrigerant flow, no convergence):
     /// machine off, backup carried what it could.
