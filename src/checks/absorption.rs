@@ -5,6 +5,11 @@
 //!   1.1.0, and enthalpy, density, cp from the paper's equations evaluated with absorptionlib's
 //!   coefficient tables and CoolProp 8.0.0 saturated water (made by
 //!   `reference/scripts/make_libr_absorptionlib.py`); crystallisation line from absorptionlib.
+//! * `libr_min_generator.csv` – the ideal lowest generator temperature (no cooling: every
+//!   exchanger at its stream's temperature, the weak solution in equilibrium with the
+//!   evaporator at the cooling-water temperature, boiling at the condenser's pressure) from
+//!   absorptionlib 1.1.0 and CoolProp 8.0.0 (`reference/scripts/make_libr_min_generator.py`),
+//!   against the model's lowest supply that makes any cooling.
 
 use super::Check;
 use super::table::parse;
@@ -12,6 +17,7 @@ use crate::error::{Error, Result};
 use crate::props::libr;
 
 const LIBR: &str = include_str!("../../reference/libr_absorptionlib.csv");
+const MIN_GEN: &str = include_str!("../../reference/libr_min_generator.csv");
 
 fn libr_checks(out: &mut Vec<Check>) -> Result<()> {
     const T: &str = "libr_absorptionlib.csv";
@@ -174,12 +180,42 @@ fn cycle_checks(out: &mut Vec<Check>) -> Result<()> {
     Ok(())
 }
 
+/// The machine's lowest working supply against the thermodynamic (equilibrium) limit: with an
+/// all but perfect solution heat exchanger it must reach the limit; with ε = 0.7 it must sit
+/// above it by the heat the SHX does not recover (band in the table's header).
+fn min_generator_checks(out: &mut Vec<Check>) -> Result<()> {
+    use crate::components::absorption_cycle::{Machine, Rating};
+    const T: &str = "libr_min_generator.csv";
+    for row in parse(T, MIN_GEN)? {
+        let (t_cw, t_chw, eps) = (
+            row.f64("t_cw_c")?,
+            row.f64("t_chw_c")?,
+            row.f64("sol_hx_effectiveness")?,
+        );
+        let mut r = Rating::typical(35.0);
+        r.sol_hx_effectiveness = eps;
+        let m = Machine::size(r)?;
+        let t = m.min_hot_water_c(t_cw, t_chw)?;
+        out.push(super::table::check(
+            "absorption",
+            T,
+            format!(
+                "lowest supply at {t_cw} °C cooling, {t_chw} °C chilled water, SHX ε {eps}, t_gen_min_c"
+            ),
+            t,
+            &row,
+        )?);
+    }
+    Ok(())
+}
+
 /// Every check of the libr, absorption and tower groups.
 pub fn checks() -> Result<Vec<Check>> {
     let mut out = Vec::new();
     libr_checks(&mut out)?;
     tower_checks(&mut out)?;
     cycle_checks(&mut out)?;
+    min_generator_checks(&mut out)?;
     Ok(out)
 }
 
