@@ -248,10 +248,9 @@ fn internal(t_e: f64, t_c: f64, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Re
     let q_c = m_r * (h7 - h8);
     let q_g = m_s * h4 + m_r * h7 - m1 * h3;
     let q_a = m_r * h10 + m_s * h5 - m1 * h1;
-    let cryst = match libr::crystallisation_temperature_c(x_s) {
-        Ok(tc) => t5 - tc,
-        Err(_) => t5 - libr::crystallisation_temperature_c(libr::X_CRYST_MIN)?,
-    };
+    // Below the fit's range the line is held at its lowest point (checked first: an error
+    // value would be built and dropped every Newton step).
+    let cryst = t5 - libr::crystallisation_temperature_c(x_s.max(libr::X_CRYST_MIN))?;
     for v in [q_e, q_c, q_g, q_a, h7, h8, h10] {
         if !v.is_finite() {
             return Err(Error::Internal("absorption cycle: non-finite state".into()));
@@ -468,7 +467,18 @@ impl Machine {
                 return Ok(p);
             }
             let mut j = [[0.0; 4]; 4];
-            for k in 0..4 {
+            // With the cooling fixed, the fourth unknown (the hot-water inlet) enters only the
+            // generator residual, linearly: that column is exact, no extra cycle evaluation.
+            let n_fd = match mode {
+                Mode::MeetLoad { .. } => {
+                    j[1][3] =
+                        -self.eps(self.ua_gen_kw_k, self.m_hw_kg_s * CP_W) * self.m_hw_kg_s * CP_W
+                            / cap;
+                    3
+                }
+                Mode::GivenSupply { .. } => 4,
+            };
+            for k in 0..n_fd {
                 let mut v = u;
                 v[k] += steps[k];
                 let (rk, _) = self.residuals(v, mode, t_cw_in_c, t_chw_out_c)?;

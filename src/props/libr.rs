@@ -227,19 +227,33 @@ fn mole_fraction(x: f64) -> f64 {
 
 /// Σ a x̃^m (0.4 − x̃)^n τ^t for a 4-column table.
 fn sum4(tab: &[(f64, i32, i32, i32)], xm: f64, tau: f64) -> f64 {
-    let d = 0.4 - xm;
+    let (xp, dp, tp) = (powers(xm), powers(0.4 - xm), powers(tau));
     tab.iter()
-        .map(|&(a, m, n, t)| a * xm.powi(m) * d.powi(n) * tau.powi(t))
+        .map(|&(a, m, n, t)| a * xp[m as usize] * dp[n as usize] * tp[t as usize])
         .sum()
+}
+
+/// Largest exponent in Tables 4–8 plus one (the tables' exponents are checked against it in
+/// the tests).
+const N_POW: usize = 9;
+
+/// `v^0 .. v^8` by repeated multiplication: the tables' integer powers without a `powi`
+/// call per term (agrees with `powi` to a few ulp).
+fn powers(v: f64) -> [f64; N_POW] {
+    let mut p = [1.0; N_POW];
+    for k in 1..N_POW {
+        p[k] = p[k - 1] * v;
+    }
+    p
 }
 
 /// Vapour-pressure temperature offset parts: Θ = T − (A + B·T/T_c).
 fn theta_parts(xm: f64) -> (f64, f64) {
-    let d = 0.4 - xm;
+    let (xp, dp) = (powers(xm), powers(0.4 - xm));
     let mut a = 0.0;
     let mut b = 0.0;
     for &(c, m, n, t) in &TAB4 {
-        let term = c * xm.powi(m) * d.powi(n);
+        let term = c * xp[m as usize] * dp[n as usize];
         if t == 0 { a += term } else { b += term }
     }
     (a, b)
@@ -383,9 +397,10 @@ pub fn density_kg_m3(t_c: f64, x: f64) -> Result<f64> {
     let xm = mole_fraction(x);
     let th = (t_c + 273.15) / T_CRIT_K;
     let rw_mol = sat_liquid(t_c, OD, "density")? / M_W;
+    let (xp, tp) = (powers(xm), powers(th));
     let s: f64 = TAB5
         .iter()
-        .map(|&(a, m, t)| a * xm.powi(m) * th.powi(t))
+        .map(|&(a, m, t)| a * xp[m as usize] * tp[t as usize])
         .sum();
     let r_mol = (1.0 - xm) * rw_mol + RHO_CRIT_MOL_M3 * s;
     Ok(r_mol * (xm * M_LIBR + (1.0 - xm) * M_W))
@@ -498,6 +513,21 @@ pub fn state_px(p_kpa: f64, x: f64) -> Result<LibrState> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn table_exponents_fit_the_power_arrays() {
+        let four = TAB4.iter().chain(&TAB6).chain(&TAB7).chain(&TAB8);
+        for &(_, m, n, t) in four {
+            assert!([m, n, t].iter().all(|&e| (0..N_POW as i32).contains(&e)));
+        }
+        for &(_, m, t) in &TAB5 {
+            assert!([m, t].iter().all(|&e| (0..N_POW as i32).contains(&e)));
+        }
+        let p = powers(0.37);
+        for (k, v) in p.iter().enumerate() {
+            assert!((v - 0.37f64.powi(k as i32)).abs() < 1e-15);
+        }
+    }
 
     #[test]
     fn pure_water_limit() {
