@@ -220,10 +220,52 @@ fn h_vapour_kj_kg(p_kpa: f64, t_c: f64) -> f64 {
     seuif97::pt(p_kpa / 1000.0, t_c, seuif97::OH)
 }
 
+/// The refrigerant (water) side of a cycle state: it depends only on the evaporating and
+/// condensing temperatures, so Newton steps that move only the mass fractions reuse it.
+#[derive(Debug, Clone, Copy)]
+struct WaterSide {
+    t_e: f64,
+    t_c: f64,
+    p_l: f64,
+    p_h: f64,
+    /// Saturated liquid at the condensing and saturated vapour at the evaporating temperature.
+    h8: f64,
+    h10: f64,
+}
+
+impl WaterSide {
+    fn new(t_e: f64, t_c: f64) -> Result<WaterSide> {
+        Ok(WaterSide {
+            t_e,
+            t_c,
+            p_l: water::saturation_pressure_kpa(t_e)?,
+            p_h: water::saturation_pressure_kpa(t_c)?,
+            h8: seuif97::tx(t_c, 0.0, seuif97::OH),
+            h10: seuif97::tx(t_e, 1.0, seuif97::OH),
+        })
+    }
+
+    /// `cache` if it holds exactly these temperatures, else a new one (stored in `cache`).
+    fn cached(cache: &mut Option<WaterSide>, t_e: f64, t_c: f64) -> Result<WaterSide> {
+        match *cache {
+            Some(w) if w.t_e == t_e && w.t_c == t_c => Ok(w),
+            _ => {
+                let w = WaterSide::new(t_e, t_c)?;
+                *cache = Some(w);
+                Ok(w)
+            }
+        }
+    }
+}
+
 /// Cycle state from evaporating/condensing temperatures, mass fractions and weak flow.
 fn internal(t_e: f64, t_c: f64, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Result<Internal> {
-    let p_l = water::saturation_pressure_kpa(t_e)?;
-    let p_h = water::saturation_pressure_kpa(t_c)?;
+    internal_with(&WaterSide::new(t_e, t_c)?, x_w, x_s, m1, eps_shx)
+}
+
+/// [`internal`] with the water side given.
+fn internal_with(ws: &WaterSide, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Result<Internal> {
+    let (t_e, t_c, p_l, p_h) = (ws.t_e, ws.t_c, ws.p_l, ws.p_h);
     let t1 = libr::temperature_c(p_l, x_w)?;
     let t4 = libr::temperature_c(p_h, x_s)?;
     let t7 = libr::temperature_c(p_h, x_w)?;
@@ -242,8 +284,7 @@ fn internal(t_e: f64, t_c: f64, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Re
     let h5 = h4 - q_shx / m_s;
     let t5 = t4 - q_shx / c_s;
     let h7 = h_vapour_kj_kg(p_h, t7.max(t_c + 1e-6));
-    let h8 = seuif97::tx(t_c, 0.0, seuif97::OH);
-    let h10 = seuif97::tx(t_e, 1.0, seuif97::OH);
+    let (h8, h10) = (ws.h8, ws.h10);
     let q_e = m_r * (h10 - h8);
     let q_c = m_r * (h7 - h8);
     let q_g = m_s * h4 + m_r * h7 - m1 * h3;
@@ -377,6 +418,7 @@ impl Machine {
         mode: Mode,
         t_cw_in: f64,
         t_chw_out: f64,
+        cache: &mut Option<WaterSide>,
     ) -> Result<([f64; 4], CyclePoint)> {
         let (q_target, t_hw_in) = match mode {
             Mode::MeetLoad { q_evap_kw } => (q_evap_kw, u[3]),
@@ -387,9 +429,9 @@ impl Machine {
         let c_hw = self.m_hw_kg_s * CP_W;
         let eps_e = self.eps(self.ua_evap_kw_k, c_chw);
         let t_e = t_chw_out - q_target * (1.0 / eps_e - 1.0) / c_chw;
-        let s = internal(
-            t_e,
-            u[0],
+        let ws = WaterSide::cached(cache, t_e, u[0])?;
+        let s = internal_with(
+            &ws,
             u[1],
             u[2],
             self.m_weak_kg_s,
@@ -453,8 +495,9 @@ impl Machine {
                 Mode::GivenSupply { .. } => 1e-7 * cap,
             },
         ];
+        let mut cache = None;
         for it in 0..30 {
-            let (r, p) = self.residuals(u, mode, t_cw_in_c, t_chw_out_c)?;
+            let (r, p) = self.residuals(u, mode, t_cw_in_c, t_chw_out_c, &mut cache)?;
             if r.iter().all(|v| v.abs() < 1e-9) {
                 if p.x_strong <= p.x_weak || p.m_ref_kg_s <= 0.0 {
                     return Err(Error::Internal(
@@ -478,10 +521,11 @@ impl Machine {
                 }
                 Mode::GivenSupply { .. } => 4,
             };
-            for k in 0..n_fd {
+            // The mass-fraction columns first: they reuse the water side of the base point.
+            for k in [1, 2, 0, 3].into_iter().filter(|&k| k < n_fd) {
                 let mut v = u;
                 v[k] += steps[k];
-                let (rk, _) = self.residuals(v, mode, t_cw_in_c, t_chw_out_c)?;
+                let (rk, _) = self.residuals(v, mode, t_cw_in_c, t_chw_out_c, &mut cache)?;
                 for i in 0..4 {
                     j[i][k] = (rk[i] - r[i]) / steps[k];
                 }
