@@ -18,6 +18,7 @@ mod collector;
 mod desiccant;
 mod feasibility;
 mod load;
+mod num;
 mod plant;
 mod psychro;
 mod rankine;
@@ -71,6 +72,7 @@ pub fn run_all() -> crate::Result<Vec<Check>> {
         desiccant::checks,
         feasibility::checks,
         rankine::checks,
+        num::checks,
     ] {
         out.extend(area()?);
     }

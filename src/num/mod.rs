@@ -1,4 +1,7 @@
-//! Numerics shared by every layer: bracketed root finding and interpolation.
+//! Numerics shared by every layer: bracketed root finding, interpolation, and nonlinear
+//! least squares (`lm`).
+
+pub mod lm;
 
 use crate::error::{Error, Result};
 /// Root of `f` in `[a, b]` by Brent's method, to absolute tolerance `tol` on x.
