@@ -530,8 +530,14 @@ impl Machine {
                     j[i][k] = (rk[i] - r[i]) / steps[k];
                 }
             }
-            let du = solve4(j, [-r[0], -r[1], -r[2], -r[3]])
-                .ok_or_else(|| Error::Internal("absorption: singular Jacobian".into()))?;
+            let mut a = [0.0; 16];
+            for (row, jr) in a.chunks_exact_mut(4).zip(&j) {
+                row.copy_from_slice(jr);
+            }
+            let mut du = [-r[0], -r[1], -r[2], -r[3]];
+            if !crate::num::solve_linear(&mut a, &mut du) {
+                return Err(Error::Internal("absorption: singular Jacobian".into()));
+            }
             let lim = [
                 5.0,
                 0.02,
@@ -572,32 +578,6 @@ impl Machine {
             )?
             .t_hw_in_c)
     }
-}
-
-/// Gaussian elimination with partial pivoting for a 4×4 system; `None` when singular.
-fn solve4(mut a: [[f64; 4]; 4], mut b: [f64; 4]) -> Option<[f64; 4]> {
-    for c in 0..4 {
-        let piv = (c..4).max_by(|&i, &k| a[i][c].abs().total_cmp(&a[k][c].abs()))?;
-        if a[piv][c].abs() < 1e-300 || !a[piv][c].is_finite() {
-            return None;
-        }
-        a.swap(c, piv);
-        b.swap(c, piv);
-        for r in c + 1..4 {
-            let f = a[r][c] / a[c][c];
-            let pivot_row = a[c];
-            for (ark, ack) in a[r].iter_mut().zip(pivot_row.iter()).skip(c) {
-                *ark -= f * ack;
-            }
-            b[r] -= f * b[c];
-        }
-    }
-    let mut x = [0.0; 4];
-    for r in (0..4).rev() {
-        let s: f64 = (r + 1..4).map(|k| a[r][k] * x[k]).sum();
-        x[r] = (b[r] - s) / a[r][r];
-    }
-    Some(x)
 }
 
 #[cfg(test)]

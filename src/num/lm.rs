@@ -26,36 +26,6 @@ pub struct Fit {
     pub iterations: u32,
 }
 
-/// Solve `A x = b` (n × n, row-major) by Gaussian elimination with partial pivoting.
-/// `None` when the matrix is singular to working precision.
-fn solve_dense(mut a: Vec<f64>, mut b: Vec<f64>, n: usize) -> Option<Vec<f64>> {
-    for k in 0..n {
-        let piv = (k..n).max_by(|&i, &j| a[i * n + k].abs().total_cmp(&a[j * n + k].abs()))?;
-        if a[piv * n + k].abs() < 1e-300 || !a[piv * n + k].is_finite() {
-            return None;
-        }
-        if piv != k {
-            for c in 0..n {
-                a.swap(k * n + c, piv * n + c);
-            }
-            b.swap(k, piv);
-        }
-        for i in k + 1..n {
-            let f = a[i * n + k] / a[k * n + k];
-            for c in k..n {
-                a[i * n + c] -= f * a[k * n + c];
-            }
-            b[i] -= f * b[k];
-        }
-    }
-    let mut x = vec![0.0; n];
-    for k in (0..n).rev() {
-        let s: f64 = (k + 1..n).map(|c| a[k * n + c] * x[c]).sum();
-        x[k] = (b[k] - s) / a[k * n + k];
-    }
-    x.iter().all(|v| v.is_finite()).then_some(x)
-}
-
 fn sum_sq(r: &[f64]) -> f64 {
     r.iter().map(|v| v * v).sum()
 }
@@ -133,11 +103,11 @@ pub fn levenberg_marquardt(
                 let d = jtj[k * n + k].max(1e-300);
                 a[k * n + k] += lambda * d;
             }
-            let rhs: Vec<f64> = jtr.iter().map(|v| -v).collect();
-            let Some(delta) = solve_dense(a, rhs, n) else {
+            let mut delta: Vec<f64> = jtr.iter().map(|v| -v).collect();
+            if !super::solve_linear(&mut a, &mut delta) {
                 lambda *= 4.0;
                 continue;
-            };
+            }
             let q: Vec<f64> = p.iter().zip(&delta).map(|(a, d)| a + d).collect();
             let trial = residuals(&q).ok().filter(|rq| rq.len() == m);
             let sq = trial.as_deref().map(sum_sq).unwrap_or(f64::INFINITY);

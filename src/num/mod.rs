@@ -4,6 +4,44 @@
 pub mod lm;
 
 use crate::error::{Error, Result};
+
+/// Solve the dense system `A x = b` in place by Gaussian elimination with partial pivoting:
+/// `a` is `n × n` row-major with `n = b.len()`, and `b` is overwritten with `x`. Returns
+/// `false` (with `a` and `b` spoiled) when a pivot is zero or non-finite, or `x` is not finite.
+/// Used by the small Newton and least-squares solves, which own their scratch arrays.
+pub fn solve_linear(a: &mut [f64], b: &mut [f64]) -> bool {
+    let n = b.len();
+    if a.len() != n * n {
+        return false;
+    }
+    for k in 0..n {
+        let Some(piv) = (k..n).max_by(|&i, &j| a[i * n + k].abs().total_cmp(&a[j * n + k].abs()))
+        else {
+            return false;
+        };
+        if a[piv * n + k].abs() < 1e-300 || !a[piv * n + k].is_finite() {
+            return false;
+        }
+        if piv != k {
+            for c in 0..n {
+                a.swap(k * n + c, piv * n + c);
+            }
+            b.swap(k, piv);
+        }
+        for i in k + 1..n {
+            let f = a[i * n + k] / a[k * n + k];
+            for c in k..n {
+                a[i * n + c] -= f * a[k * n + c];
+            }
+            b[i] -= f * b[k];
+        }
+    }
+    for k in (0..n).rev() {
+        let s: f64 = (k + 1..n).map(|c| a[k * n + c] * b[c]).sum();
+        b[k] = (b[k] - s) / a[k * n + k];
+    }
+    b.iter().all(|v| v.is_finite())
+}
 /// Root of `f` in `[a, b]` by Brent's method, to absolute tolerance `tol` on x.
 ///
 /// Brent's zeroin (R.P. Brent, *Algorithms for Minimization without Derivatives*,
@@ -119,6 +157,20 @@ pub fn interp(table: &[(f64, f64)], x: f64) -> f64 {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// A system that needs a row swap (zero first pivot): 2y + z = 7, x + y + z = 6,
+    /// 2x + y − z = 1 has x = 1, y = 2, z = 3; a singular one is refused.
+    #[test]
+    fn linear_solve_pivots_and_refuses_singular() {
+        let mut a = [0.0, 2.0, 1.0, 1.0, 1.0, 1.0, 2.0, 1.0, -1.0];
+        let mut b = [7.0, 6.0, 1.0];
+        assert!(solve_linear(&mut a, &mut b));
+        for (x, e) in b.iter().zip([1.0, 2.0, 3.0]) {
+            assert!((x - e).abs() < 1e-12, "{b:?}");
+        }
+        let mut a = [1.0, 2.0, 2.0, 4.0];
+        assert!(!solve_linear(&mut a, &mut [1.0, 2.0]));
+    }
 
     #[test]
     fn brent_finds_sqrt2() {
