@@ -322,6 +322,19 @@ impl Absorption {
         }
     }
 
+    /// The machine at the chilled-water set-point; a warm start that fails is retried from
+    /// the design point (never a silent number).
+    fn solve_retrying(
+        &self,
+        mode: Mode,
+        t_cw: f64,
+        warm: Option<&CyclePoint>,
+    ) -> Result<CyclePoint> {
+        let (m, t_chw) = (&self.machine, self.spec.t_chw_out_c);
+        m.solve(mode, t_cw, t_chw, warm)
+            .or_else(|_| m.solve(mode, t_cw, t_chw, None))
+    }
+
     fn solve_at(
         &self,
         c: &HourConditions,
@@ -330,13 +343,7 @@ impl Absorption {
         t_cw: f64,
         warm: Option<&CyclePoint>,
     ) -> Result<CyclePoint> {
-        let m = &self.machine;
-        let t_chw = self.spec.t_chw_out_c;
-        // A warm start that fails is retried from the design point (never a silent number).
-        let solve = |mode: Mode| {
-            m.solve(mode, t_cw, t_chw, warm)
-                .or_else(|_| m.solve(mode, t_cw, t_chw, None))
-        };
+        let solve = |mode: Mode| self.solve_retrying(mode, t_cw, warm);
         let need = solve(Mode::MeetLoad { q_evap_kw: load });
         match need {
             Ok(p) if p.t_hw_in_c <= t_avail => Ok(p),
@@ -463,10 +470,7 @@ impl Absorption {
         let m = &self.machine;
         let (t_cw, t_chw) = (p.t_cw_in_c, self.spec.t_chw_out_c);
         let min = self.spec.cryst_margin_min_k;
-        let at = |t: f64| {
-            m.solve(Mode::GivenSupply { t_hw_in_c: t }, t_cw, t_chw, Some(p))
-                .or_else(|_| m.solve(Mode::GivenSupply { t_hw_in_c: t }, t_cw, t_chw, None))
-        };
+        let at = |t: f64| self.solve_retrying(Mode::GivenSupply { t_hw_in_c: t }, t_cw, Some(p));
         let lo = m
             .solve(
                 Mode::MeetLoad {
