@@ -138,6 +138,16 @@ const APPROACH_COND_K: f64 = 3.0;
 const APPROACH_ABS_K: f64 = 4.0;
 const APPROACH_GEN_K: f64 = 3.0;
 
+/// Changes to a sized machine found by fitting it to a datasheet
+/// (`components::absorption_fit`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Calibration {
+    /// Multipliers of the generator, absorber, condenser and evaporator UA sized at rating.
+    pub ua_multipliers: [f64; 4],
+    /// Solution heat-exchanger effectiveness.
+    pub sol_hx_effectiveness: f64,
+}
+
 /// A sized machine (UAs fixed).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Machine {
@@ -405,6 +415,53 @@ impl Machine {
             ua_evap_kw_k: ua_evap,
             design: p,
         })
+    }
+
+    /// The same machine with its four external UAs multiplied by `c.ua_multipliers`
+    /// (generator, absorber, condenser, evaporator) and its solution heat exchanger at
+    /// `c.sol_hx_effectiveness`; flows (pump and the three circuits) stay at design. The
+    /// design point (warm start, rated heat rejection) is re-solved at the rating
+    /// temperatures with the rated hot-water supply.
+    ///
+    /// Errors: `Input` for a multiplier that is not positive and finite or an effectiveness
+    /// outside (0, 1); `Internal` when the changed machine makes no cooling at its rating.
+    pub fn calibrated(&self, c: &Calibration) -> Result<Machine> {
+        for (k, m) in ["generator", "absorber", "condenser", "evaporator"]
+            .iter()
+            .zip(c.ua_multipliers)
+        {
+            if !(m.is_finite() && m > 0.0) {
+                return Err(Error::input(
+                    format!("ua_multiplier.{k}"),
+                    m,
+                    "a positive UA multiplier",
+                ));
+            }
+        }
+        validate::open_range(
+            "sol_hx_effectiveness",
+            c.sol_hx_effectiveness,
+            0.0,
+            1.0,
+            "solution heat-exchanger effectiveness",
+        )?;
+        let [fg, fa, fc, fe] = c.ua_multipliers;
+        let mut m = *self;
+        m.rating.sol_hx_effectiveness = c.sol_hx_effectiveness;
+        m.ua_gen_kw_k *= fg;
+        m.ua_abs_kw_k *= fa;
+        m.ua_cond_kw_k *= fc;
+        m.ua_evap_kw_k *= fe;
+        let r = m.rating;
+        m.design = m.solve(
+            Mode::GivenSupply {
+                t_hw_in_c: r.t_hw_in_c,
+            },
+            r.t_cw_in_c,
+            r.t_chw_out_c,
+            Some(&self.design),
+        )?;
+        Ok(m)
     }
 
     fn eps(&self, ua: f64, c: f64) -> f64 {

@@ -2,6 +2,7 @@
 //! or of economics.
 
 pub mod absorption_cycle;
+pub mod absorption_fit;
 pub mod boiler;
 pub mod chiller_electric;
 pub mod collector;
