@@ -123,6 +123,18 @@ enum Verb {
         #[arg(long)]
         quiet: bool,
     },
+    /// Fit each absorption option that names a `datasheet` to it and print the fitted UA
+    /// multipliers, SHX effectiveness and the error at every row; exit status 2 when a fit
+    /// is beyond its bounds.
+    Calibrate {
+        scenario: PathBuf,
+        /// Only this option.
+        #[arg(long)]
+        option: Option<String>,
+        /// Print JSON (an array, one object per option) instead of tables.
+        #[arg(long)]
+        json: bool,
+    },
     /// Print one state point of a working substance, to check by hand.
     State {
         #[command(subcommand)]
@@ -517,6 +529,11 @@ fn inputs_of(l: &scenario::Loaded) -> Vec<PathBuf> {
     if let Some(f) = &l.scenario.load.file {
         v.push(l.base_dir.join(&f.path));
     }
+    for o in l.scenario.options.values() {
+        if let Some(d) = o.absorption.as_ref().and_then(|a| a.datasheet.as_ref()) {
+            v.push(l.base_dir.join(d));
+        }
+    }
     v
 }
 
@@ -707,6 +724,61 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         }
         Verb::State { substance } => {
             print(&state(substance)?)?;
+            Ok(ExitCode::SUCCESS)
+        }
+        Verb::Calibrate {
+            scenario: path,
+            option,
+            json,
+        } => {
+            let l = scenario::load(&path)?;
+            let file = l.file();
+            let mut fits = Vec::new();
+            for (name, o) in &l.scenario.options {
+                if option.as_ref().is_some_and(|n| n != name) {
+                    continue;
+                }
+                let Some(spec) = o.absorption.as_ref().filter(|a| a.datasheet.is_some()) else {
+                    continue;
+                };
+                let prefix = format!("options.{name}");
+                let sheet = scenario::build::read_datasheet(&l, spec)
+                    .map_err(|e| e.within(&file, &prefix))?
+                    .ok_or_else(|| Error::Internal("datasheet checked".into()))?;
+                let fit = parhelion::routes::absorption::calibrate(spec, &sheet)
+                    .map_err(|e| e.within(&file, &format!("{prefix}.absorption")))?;
+                fits.push((name.clone(), fit));
+            }
+            if fits.is_empty() {
+                return Err(Error::Input {
+                    file,
+                    key: option.map_or("options".into(), |n| format!("options.{n}")),
+                    value: "no absorption section with a datasheet".into(),
+                    allowed: "an absorption option whose [options.NAME.absorption] names `datasheet = \"FILE.csv\"`".into(),
+                });
+            }
+            if json {
+                let v: Vec<_> = fits
+                    .iter()
+                    .map(|(n, f)| parhelion::report::calibration::json(n, f))
+                    .collect();
+                let v = serde_json::to_string_pretty(&v)
+                    .map_err(|e| Error::Internal(format!("JSON: {e}")))?;
+                print(&format!("{v}\n"))?;
+            } else {
+                let text: Vec<String> = fits
+                    .iter()
+                    .map(|(n, f)| parhelion::report::calibration::render(n, f))
+                    .collect();
+                print(&text.join("\n"))?;
+            }
+            for (name, f) in &fits {
+                if let Err(e) = f.accept() {
+                    let e = e.within(&l.file(), &format!("options.{name}.absorption"));
+                    eprintln!("error: {e}");
+                    return Ok(ExitCode::from(2));
+                }
+            }
             Ok(ExitCode::SUCCESS)
         }
         Verb::Checks { json } => {

@@ -540,3 +540,74 @@ fn glycol_loop_needs_a_heat_exchanger() {
         );
     assert_bad("glycol", &t, &["field.fluid", "hx_effectiveness"]);
 }
+
+/// `calibrate` on the office demo: the fitted values and every datasheet row, as JSON, within
+/// the bounds; the same datasheet with one capacity mistyped (×10) is refused with exit 2
+/// naming the datasheet and the worst line, and `evaluate` refuses to run it.
+#[test]
+fn calibrate_fits_the_demo_datasheet_and_refuses_a_bad_one() {
+    let o = run(&[
+        "calibrate",
+        demo_path("qasr-alvar-office").to_str().unwrap(),
+        "--json",
+    ]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    let f = &v[0];
+    assert_eq!(f["option"], "solar-absorption");
+    assert_eq!(f["accepted"], true);
+    assert_eq!(f["rows"].as_array().unwrap().len(), 12);
+    assert!(f["rms_capacity_pct"].as_f64().unwrap() <= 5.0);
+    assert!(f["rms_cop"].as_f64().unwrap() <= 0.03);
+    for k in ["generator", "absorber", "condenser", "evaporator"] {
+        let m = f["ua_multiplier"][k].as_f64().unwrap();
+        assert!(m > 0.2 && m < 5.0, "{k}: {m}");
+    }
+    // The RMS the report gives is the RMS of the rows it lists.
+    let rows = f["rows"].as_array().unwrap();
+    let rms = (rows
+        .iter()
+        .map(|r| r["capacity_error_pct"].as_f64().unwrap().powi(2))
+        .sum::<f64>()
+        / rows.len() as f64)
+        .sqrt();
+    assert!((rms - f["rms_capacity_pct"].as_f64().unwrap()).abs() < 1e-9);
+
+    let d = tmp("calibrate-bad");
+    let scen = std::fs::read_to_string(demo_path("qasr-alvar-office")).unwrap();
+    std::fs::write(d.join("s.toml"), &scen).unwrap();
+    let sheet = std::fs::read_to_string(
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("scenarios/qasr-alvar-office-absorber.csv"),
+    )
+    .unwrap()
+    .replace("88,33,7,86,0.70", "88,33,7,860,0.70");
+    std::fs::write(d.join("qasr-alvar-office-absorber.csv"), sheet).unwrap();
+    let s = d.join("s.toml");
+    let o = run(&["calibrate", s.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("REFUSED"));
+    let e = stderr(&o);
+    assert!(
+        e.contains("qasr-alvar-office-absorber.csv") && e.contains("worst line 12"),
+        "{e}"
+    );
+    let o = run(&["evaluate", s.to_str().unwrap(), "--quiet"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("worst line 12"), "{}", stderr(&o));
+    std::fs::remove_file(d.join("qasr-alvar-office-absorber.csv")).unwrap();
+    let o = run(&["evaluate", s.to_str().unwrap(), "--quiet"]);
+    assert_eq!(o.status.code(), Some(2));
+    let e = stderr(&o);
+    assert!(
+        e.contains("options.solar-absorption.absorption.datasheet")
+            && e.trim().lines().count() == 1,
+        "{e}"
+    );
+    let o = run(&[
+        "calibrate",
+        demo_path("port-meridian-clinic").to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("datasheet"), "{}", stderr(&o));
+    let _ = std::fs::remove_dir_all(&d);
+}

@@ -213,8 +213,8 @@ impl FitReport {
         self.rms_capacity <= BOUND_RMS_CAPACITY && self.rms_cop <= BOUND_RMS_COP
     }
 
-    /// `Ok` when [`FitReport::within_bounds`]; else an input error naming the datasheet, the
-    /// RMS errors, the bounds and the worst row.
+    /// `Ok` when [`FitReport::within_bounds`]; else an input error on the key `datasheet`
+    /// naming the file, the RMS errors, the bounds and the worst row.
     pub fn accept(&self) -> Result<()> {
         if self.within_bounds() {
             return Ok(());
@@ -238,15 +238,15 @@ impl FitReport {
                 )
             })
             .unwrap_or_default();
-        Err(bad(
-            &self.file,
-            "fit",
+        Err(Error::input(
+            "datasheet",
             format!(
-                "RMS capacity error {:.1} %, RMS COP error {:.3}{worst}",
+                "{} fitted with RMS capacity error {:.1} %, RMS COP error {:.3}{worst}",
+                self.file,
                 100.0 * self.rms_capacity,
                 self.rms_cop
             ),
-            &format!(
+            format!(
                 "a fit within {:.0} % RMS capacity and {:.2} RMS COP: the model cannot represent this table (check its units, flows and machine type)",
                 100.0 * BOUND_RMS_CAPACITY,
                 BOUND_RMS_COP

@@ -1,6 +1,7 @@
 //! Output: terminal tables, hourly CSV, JSON summary. Knows no physics: it formats what the
 //! feasibility layer computed.
 
+pub mod calibration;
 pub mod checks;
 pub mod files;
 pub mod hourly;

@@ -22,7 +22,7 @@ fn pct(x: Option<f64>) -> String {
     x.map_or("–".into(), |v| format!("{:.1}", 100.0 * v))
 }
 
-fn new_table(header: &[&str]) -> Table {
+pub(crate) fn new_table(header: &[&str]) -> Table {
     let mut t = Table::new();
     let md = MARKDOWN.with(StdCell::get);
     t.load_preset(if md {
@@ -39,7 +39,7 @@ fn new_table(header: &[&str]) -> Table {
     t
 }
 
-fn right(t: &mut Table, from: usize) {
+pub(crate) fn right(t: &mut Table, from: usize) {
     let n = t.column_count();
     for i in from..n {
         if let Some(c) = t.column_mut(i) {

@@ -26,6 +26,7 @@
 
 use super::{HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour};
 use crate::components::absorption_cycle::{CyclePoint, Machine, Mode, Rating};
+use crate::components::absorption_fit::{self, Datasheet, FitReport};
 use crate::components::chiller_electric::ChillerSpec;
 use crate::components::cooling_tower::{Tower, TowerSpec};
 use crate::error::Result;
@@ -135,6 +136,12 @@ pub struct AbsorptionSpec {
     /// hour counted as `crystallisation-margin`).
     #[serde(default = "d_margin")]
     pub cryst_margin_min_k: f64,
+    /// Manufacturer's performance table (CSV, `components::absorption_fit`); a relative path
+    /// is taken from the scenario's folder. When given, the machine sized at rating is fitted
+    /// to it (four UA multipliers and the SHX effectiveness) and the fitted machine runs the
+    /// year; a fit beyond the bounds is refused.
+    #[serde(default)]
+    pub datasheet: Option<String>,
 }
 
 impl AbsorptionSpec {
@@ -170,6 +177,15 @@ impl AbsorptionSpec {
             30.0,
             "crystallisation margin, K",
         )?;
+        if let Some(d) = &self.datasheet
+            && d.trim().is_empty()
+        {
+            return Err(crate::error::Error::input(
+                "datasheet",
+                "\"\"",
+                "the path of a CSV performance table",
+            ));
+        }
         Ok(())
     }
 
@@ -284,12 +300,35 @@ impl Memo {
     }
 }
 
-/// Size the machine at its rating and the tower for the rated heat rejection.
+/// Fit the machine the section rates to a datasheet (see `components::absorption_fit`): the
+/// report, whether or not within its bounds.
 ///
-/// Errors: `Input` for a bad section, `Internal` when the rating is infeasible.
-pub fn build(spec: AbsorptionSpec, baseline: &ChillerSpec) -> Result<Absorption> {
+/// Errors: `Input` for a bad section or a row the rated machine cannot solve, `Internal` when
+/// the rating is infeasible or the fit fails.
+pub fn calibrate(spec: &AbsorptionSpec, sheet: &Datasheet) -> Result<FitReport> {
     spec.validate()?;
-    let machine = Machine::size(spec.rating())?;
+    absorption_fit::fit(&Machine::size(spec.rating())?, sheet, None)
+}
+
+/// Size the machine at its rating (fitted to `datasheet` when given: a fit beyond the bounds
+/// is an error) and the tower for the machine's heat rejection at rating.
+///
+/// Errors: `Input` for a bad section or a refused fit, `Internal` when the rating is
+/// infeasible.
+pub fn build(
+    spec: AbsorptionSpec,
+    baseline: &ChillerSpec,
+    datasheet: Option<&Datasheet>,
+) -> Result<Absorption> {
+    spec.validate()?;
+    let machine = match datasheet {
+        None => Machine::size(spec.rating())?,
+        Some(sheet) => {
+            let fit = calibrate(&spec, sheet)?;
+            fit.accept()?;
+            fit.machine
+        }
+    };
     let tower = spec
         .tower
         .size(machine.design.q_abs_kw + machine.design.q_cond_kw)?;
@@ -644,7 +683,12 @@ mod tests {
 
     #[test]
     fn meets_part_load_with_boiler_backup() {
-        let r = build(spec(), &ChillerSpec::typical(Condenser::WaterCooled, 35.0)).unwrap();
+        let r = build(
+            spec(),
+            &ChillerSpec::typical(Condenser::WaterCooled, 35.0),
+            None,
+        )
+        .unwrap();
         let c = hour(20.0, 24.0);
         let req = r.heat_request(&c, Some(90.0)).unwrap();
         let h = r.solve_hour(&c, Some(90.0));
@@ -675,7 +719,7 @@ mod tests {
     fn electric_backup_when_store_cold() {
         let mut s = spec();
         s.backup = Backup::ElectricChiller;
-        let r = build(s, &ChillerSpec::typical(Condenser::WaterCooled, 35.0)).unwrap();
+        let r = build(s, &ChillerSpec::typical(Condenser::WaterCooled, 35.0), None).unwrap();
         let c = hour(30.0, 24.0);
         assert!(r.heat_request(&c, Some(60.0)).is_none());
         let out = r.run(&c, None, None);
@@ -694,11 +738,11 @@ mod tests {
         let bc = ChillerSpec::typical(Condenser::WaterCooled, 35.0);
         let mut s = spec();
         s.backup = Backup::ElectricChiller;
-        let free = build(s.clone(), &bc).unwrap();
+        let free = build(s.clone(), &bc, None).unwrap();
         let c = hour(60.0, 19.0);
         let h0 = free.solve_hour(&c, Some(95.0));
         assert_eq!(h0.reason, AbsorptionReason::CapacityLimit, "{h0:?}");
-        let mut guarded = build(s.clone(), &bc).unwrap();
+        let mut guarded = build(s.clone(), &bc, None).unwrap();
         guarded.spec.cryst_margin_min_k = h0.cryst_margin_k + 1.0;
         let min = guarded.spec.cryst_margin_min_k;
         let h1 = guarded.solve_hour(&c, Some(95.0));
@@ -719,7 +763,7 @@ mod tests {
         assert!((out.cooling_kwh - 60.0).abs() < 1e-6, "{out:?}");
         assert!((out.backup_cooling_kwh - (60.0 - h1.cooling_kwh)).abs() < 1e-6);
         // A margin no supply reaches: the machine stays off, the backup carries the hour.
-        let mut off = build(s, &bc).unwrap();
+        let mut off = build(s, &bc, None).unwrap();
         off.spec.cryst_margin_min_k = h0.cryst_margin_k + 5.0;
         let h2 = off.solve_hour(&c, Some(95.0));
         assert_eq!(h2.reason, AbsorptionReason::CrystallisationMargin);
@@ -736,14 +780,14 @@ mod tests {
         let bc = ChillerSpec::typical(Condenser::WaterCooled, 35.0);
         let mut s = spec();
         s.t_hw_in_c = 30.0; // hot water colder than cooling water
-        assert!(build(s, &bc).is_err());
+        assert!(build(s, &bc, None).is_err());
         let mut s = spec();
         s.t_chw_in_c = 36.0;
         s.t_chw_out_c = 7.0; // chilled water above cooling water
-        assert!(build(s, &bc).is_err());
+        assert!(build(s, &bc, None).is_err());
         let mut s = spec();
         s.sol_hx_effectiveness = 0.0;
-        assert!(build(s, &bc).is_err());
+        assert!(build(s, &bc, None).is_err());
         assert!(toml::from_str::<AbsorptionSpec>("bogus = 1").is_err());
     }
 }

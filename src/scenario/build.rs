@@ -332,13 +332,31 @@ fn missing(key: &str, route: RouteKind) -> Error {
     )
 }
 
+/// The datasheet an absorption section names, read (errors name the datasheet file; a
+/// missing file names the key `absorption.datasheet`).
+pub fn read_datasheet(
+    l: &Loaded,
+    spec: &crate::routes::absorption::AbsorptionSpec,
+) -> Result<Option<crate::components::absorption_fit::Datasheet>> {
+    let Some(path) = &spec.datasheet else {
+        return Ok(None);
+    };
+    crate::components::absorption_fit::read(path, &l.base_dir)
+        .map(Some)
+        .map_err(|e| match e {
+            Error::Read { path: p, source } => Error::Input {
+                file: String::new(),
+                key: "absorption.datasheet".into(),
+                value: format!("{path:?}"),
+                allowed: format!("a readable CSV file ({}: {source})", p.display()),
+            },
+            e => e,
+        })
+}
+
 /// The cooling route of one option, sized from its section (keys relative to the option).
-fn build_route(
-    s: &Scenario,
-    _name: &str,
-    o: &OptionSection,
-    p: &Prepared,
-) -> Result<Box<dyn Route>> {
+fn build_route(l: &Loaded, o: &OptionSection, p: &Prepared) -> Result<Box<dyn Route>> {
+    let s = &l.scenario;
     let base = &s.baseline;
     Ok(match o.route {
         RouteKind::Electric => Box::new(
@@ -349,8 +367,9 @@ fn build_route(
                 .absorption
                 .clone()
                 .ok_or_else(|| missing("absorption", o.route))?;
+            let sheet = read_datasheet(l, &spec)?;
             Box::new(
-                crate::routes::absorption::build(spec, base)
+                crate::routes::absorption::build(spec, base, sheet.as_ref())
                     .map_err(|e| e.within("", "absorption"))?,
             )
         }
@@ -420,7 +439,7 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
     let mut out = Vec::with_capacity(s.options.len());
     for (name, o) in &s.options {
         let prefix = format!("options.{name}");
-        let route = build_route(s, name, o, p).map_err(|e| e.within(&file, &prefix))?;
+        let route = build_route(l, o, p).map_err(|e| e.within(&file, &prefix))?;
         let (solar, gross_m2, store_m3) = match (&o.field, &o.storage) {
             (Some(f), Some(st)) => {
                 let (loop_, gross, m3) =

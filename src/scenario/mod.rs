@@ -82,6 +82,13 @@ pub fn assumptions(s: &Scenario) -> Vec<String> {
         ),
         "Water-cooled plants reject heat through a counterflow tower (effectiveness–NTU); water = evaporation + blow-down.".into(),
     ];
+    for (name, o) in &s.options {
+        if let Some(d) = o.absorption.as_ref().and_then(|a| a.datasheet.as_ref()) {
+            v.push(format!(
+                "Option {name}: the absorption machine is fitted to the performance table {d} (four heat-exchanger UA multipliers and the solution heat-exchanger effectiveness, least squares); `parhelion calibrate` prints the fit row by row."
+            ));
+        }
+    }
     match &s.economics {
         Some(m) => {
             v.push(format!(

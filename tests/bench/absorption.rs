@@ -12,7 +12,12 @@ use std::hint::black_box;
 
 fn bench(c: &mut Criterion) {
     let spec: AbsorptionSpec = toml::from_str("").expect("defaults");
-    let route = build(spec, &ChillerSpec::typical(Condenser::WaterCooled, 35.0)).expect("build");
+    let route = build(
+        spec,
+        &ChillerSpec::typical(Condenser::WaterCooled, 35.0),
+        None,
+    )
+    .expect("build");
     let hour = HourConditions {
         hour: 4000,
         t_db_c: 30.0,
