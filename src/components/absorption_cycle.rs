@@ -276,10 +276,12 @@ fn internal(t_e: f64, t_c: f64, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Re
 /// [`internal`] with the water side given.
 fn internal_with(ws: &WaterSide, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Result<Internal> {
     let (t_e, t_c, p_l, p_h) = (ws.t_e, ws.t_c, ws.p_l, ws.p_h);
-    let t1 = libr::temperature_c(p_l, x_w)?;
-    let t4 = libr::temperature_c(p_h, x_s)?;
-    let t7 = libr::temperature_c(p_h, x_w)?;
-    let t_abs_in = libr::temperature_c(p_l, x_s)?;
+    // Solution temperatures from the water saturation temperatures at the two pressures.
+    let (weak, strong) = (libr::DuhringLine::new(x_w)?, libr::DuhringLine::new(x_s)?);
+    let t1 = weak.solution_temperature_c(t_e)?;
+    let t4 = strong.solution_temperature_c(t_c)?;
+    let t7 = weak.solution_temperature_c(t_c)?;
+    let t_abs_in = strong.solution_temperature_c(t_e)?;
     let m_s = m1 * x_w / x_s;
     let m_r = m1 - m_s;
     let h1 = libr::enthalpy_kj_kg(t1, x_w)?;
