@@ -268,6 +268,53 @@ impl WaterSide {
     }
 }
 
+fn state_points(
+    t_e: f64,
+    t_c: f64,
+    t1: f64,
+    t4: f64,
+    m1: f64,
+    eps_shx: f64,
+) -> Result<(f64, f64, Internal)> {
+    let x_w = libr::mass_fraction(water::saturation_pressure_kpa(t_e)?, t1)?;
+    let x_s = libr::mass_fraction(water::saturation_pressure_kpa(t_c)?, t4)?;
+    if x_s <= x_w + 1e-4 {
+        return Err(Error::Internal(format!(
+            "absorption cycle: strong solution {x_s:.4} not above weak {x_w:.4}: generator too cold for the absorber"
+        )));
+    }
+    Ok((x_w, x_s, internal(t_e, t_c, x_w, x_s, m1, eps_shx)?))
+}
+
+/// The internal cycle (no external exchangers) at given machine-side temperatures: weak
+/// solution leaving the absorber at `t_abs_out_c` in equilibrium with the evaporator at
+/// `t_evap_c`, strong solution leaving the generator at `t_gen_out_c` in equilibrium with
+/// the condenser at `t_cond_c`, weak-solution flow `m_weak_kg_s`, SHX effectiveness
+/// `eps_shx`. Every state point and heat flow as the module documentation defines them (the
+/// same arithmetic the sizing and the off-design solve use); the external-stream fields of
+/// the result are zero.
+///
+/// Errors: `Internal` when the strong solution is not richer than the weak (no refrigerant
+/// flow), `OutOfRange` when a property leaves its range.
+pub fn internal_cycle(
+    t_evap_c: f64,
+    t_cond_c: f64,
+    t_abs_out_c: f64,
+    t_gen_out_c: f64,
+    m_weak_kg_s: f64,
+    eps_shx: f64,
+) -> Result<CyclePoint> {
+    let (_, _, s) = state_points(
+        t_evap_c,
+        t_cond_c,
+        t_abs_out_c,
+        t_gen_out_c,
+        m_weak_kg_s,
+        eps_shx,
+    )?;
+    Ok(s.p)
+}
+
 /// Cycle state from evaporating/condensing temperatures, mass fractions and weak flow.
 fn internal(t_e: f64, t_c: f64, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> Result<Internal> {
     internal_with(&WaterSide::new(t_e, t_c)?, x_w, x_s, m1, eps_shx)
@@ -368,14 +415,7 @@ impl Machine {
         let t_c = r.t_cw_out_c + APPROACH_COND_K;
         let t1 = r.t_cw_in_c + APPROACH_ABS_K;
         let t4 = r.t_hw_out_c - APPROACH_GEN_K;
-        let x_w = libr::mass_fraction(water::saturation_pressure_kpa(t_e)?, t1)?;
-        let x_s = libr::mass_fraction(water::saturation_pressure_kpa(t_c)?, t4)?;
-        if x_s <= x_w + 1e-4 {
-            return Err(Error::Internal(format!(
-                "absorption design: strong solution {x_s:.4} not above weak {x_w:.4}: hot water too cold for the cooling water"
-            )));
-        }
-        let unit = internal(t_e, t_c, x_w, x_s, 1.0, r.sol_hx_effectiveness)?;
+        let (x_w, x_s, unit) = state_points(t_e, t_c, t1, t4, 1.0, r.sol_hx_effectiveness)?;
         let m1 = r.capacity_kw / unit.p.q_evap_kw;
         let d = internal(t_e, t_c, x_w, x_s, m1, r.sol_hx_effectiveness)?;
         let m_hw = d.p.q_gen_kw / (CP_W * (r.t_hw_in_c - r.t_hw_out_c));
