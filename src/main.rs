@@ -751,7 +751,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             }
             if fits.is_empty() {
                 return Err(Error::Input {
-                    file,
+                    file: file.clone(),
                     key: option.map_or("options".into(), |n| format!("options.{n}")),
                     value: "no absorption section with a datasheet".into(),
                     allowed: "an absorption option whose [options.NAME.absorption] names `datasheet = \"FILE.csv\"`".into(),
@@ -774,7 +774,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             }
             for (name, f) in &fits {
                 if let Err(e) = f.accept() {
-                    let e = e.within(&l.file(), &format!("options.{name}.absorption"));
+                    let e = e.within(&file, &format!("options.{name}.absorption"));
                     eprintln!("error: {e}");
                     return Ok(ExitCode::from(2));
                 }

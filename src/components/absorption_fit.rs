@@ -72,15 +72,6 @@ const COLUMNS: [(&str, f64, f64, &str); 5] = [
     ),
 ];
 
-fn bad(file: &str, key: impl Into<String>, value: impl ToString, allowed: &str) -> Error {
-    Error::Input {
-        file: file.to_string(),
-        key: key.into(),
-        value: value.to_string(),
-        allowed: allowed.to_string(),
-    }
-}
-
 /// Read a datasheet; a relative `path` is taken from `base_dir` (the scenario's folder).
 ///
 /// Errors: unreadable file (`Error::Read`); a missing column (key `header`); a cell that is
@@ -110,30 +101,33 @@ pub fn parse(file: &str, text: &str) -> Result<Datasheet> {
         .from_reader(text.as_bytes());
     let headers = rdr
         .headers()
-        .map_err(|e| bad(file, "header", e, "a CSV header row naming the columns"))?
+        .map_err(|e| {
+            Error::input("header", e, "a CSV header row naming the columns").within(file, "")
+        })?
         .clone();
     let mut idx = [0usize; 5];
     for (k, (name, ..)) in COLUMNS.iter().enumerate() {
         idx[k] = headers.iter().position(|h| h == *name).ok_or_else(|| {
-            bad(
-                file,
+            Error::input(
                 "header",
                 headers.iter().collect::<Vec<_>>().join(","),
                 "must name the columns t_hw_in_c, t_cw_in_c, t_chw_out_c, capacity_kw, cop",
             )
+            .within(file, "")
         })?;
     }
     let mut rows = Vec::new();
     for rec in rdr.records() {
-        let rec = rec.map_err(|e| bad(file, "rows", e, "CSV rows of numbers"))?;
+        let rec =
+            rec.map_err(|e| Error::input("rows", e, "CSV rows of numbers").within(file, ""))?;
         let line = rec.position().map(|p| p.line() as usize).unwrap_or(0);
         let mut v = [0.0; 5];
         for (k, (name, lo, hi, meaning)) in COLUMNS.iter().enumerate() {
             let cell = rec.get(idx[k]).unwrap_or("");
             let key = format!("line {line}, column {name}");
-            let x: f64 = cell
-                .parse()
-                .map_err(|_| bad(file, key.clone(), format!("{cell:?}"), meaning))?;
+            let x: f64 = cell.parse().map_err(|_| {
+                Error::input(key.clone(), format!("{cell:?}"), *meaning).within(file, "")
+            })?;
             validate::in_range(&key, x, *lo, *hi, meaning).map_err(|e| e.within(file, ""))?;
             v[k] = x;
         }
@@ -146,25 +140,25 @@ pub fn parse(file: &str, text: &str) -> Result<Datasheet> {
             cop: v[4],
         };
         if !(row.t_chw_out_c < row.t_cw_in_c && row.t_cw_in_c + 10.0 < row.t_hw_in_c) {
-            return Err(bad(
-                file,
+            return Err(Error::input(
                 format!("line {line}"),
                 format!(
                     "hot {} °C, cooling {} °C, chilled {} °C",
                     row.t_hw_in_c, row.t_cw_in_c, row.t_chw_out_c
                 ),
                 "chilled water below cooling water, and hot water at least 10 K above it",
-            ));
+            )
+            .within(file, ""));
         }
         rows.push(row);
     }
     if rows.len() < MIN_ROWS {
-        return Err(bad(
-            file,
+        return Err(Error::input(
             "rows",
             rows.len(),
-            &format!("at least {MIN_ROWS} performance rows to fit five parameters"),
-        ));
+            format!("at least {MIN_ROWS} performance rows to fit five parameters"),
+        )
+        .within(file, ""));
     }
     Ok(Datasheet {
         file: file.to_string(),
@@ -300,15 +294,15 @@ pub fn fit(rated: &Machine, sheet: &Datasheet, start: Option<Calibration>) -> Re
     let m0 = rated.calibrated(&calibration_of(&p0))?;
     for r in &sheet.rows {
         solve_row(&m0, r).map_err(|e| {
-            bad(
-                &sheet.file,
+            Error::input(
                 format!("line {}", r.line),
                 format!(
                     "hot {} °C, cooling {} °C, chilled {} °C",
                     r.t_hw_in_c, r.t_cw_in_c, r.t_chw_out_c
                 ),
-                &format!("a row where the machine rated here makes cooling ({e})"),
+                format!("a row where the machine rated here makes cooling ({e})"),
             )
+            .within(&sheet.file, "")
         })?;
     }
 
