@@ -22,29 +22,10 @@ from absorptionlib.LiBr import functions as L
 import CoolProp.CoolProp as CP
 
 absorptionlib.disable_warnings()
-P = L.Params_PK()
-TC, T0 = 647.096, 221.0
 W = "IF97::Water"
 
-def xmol(x):
-    return (x / P.M_LiBr) / (x / P.M_LiBr + (1 - x) / P.M_W)
-
-def msum(a, m, n, t, xm, tau):
-    return sum(a[i] * xm ** m[i] * (0.4 - xm) ** n[i] * tau ** t[i] for i in range(len(a)))
-
-def props(x, t_c):
-    T = t_c + 273.15
-    xm = xmol(x)
-    M = xm * P.M_LiBr + (1 - xm) * P.M_W
-    tau = TC / (T - T0)
-    hw = CP.PropsSI("Hmolar", "T", T, "Q", 0, W)
-    cw = CP.PropsSI("Cpmolar", "T", T, "Q", 0, W)
-    rw = CP.PropsSI("Dmolar", "T", T, "Q", 0, W)
-    h = ((1 - xm) * hw + P.enthalpyCritWmol * msum(P.aTab7, P.mTab7, P.nTab7, P.tTab7, xm, tau)) / M / 1000
-    cp = ((1 - xm) * cw + P.cpCritWmol * msum(P.aTab6, P.mTab6, P.nTab6, P.tTab6, xm, tau)) / M / 1000
-    rs = sum(P.aTab5[i] * xm ** P.mTab5[i] * (T / TC) ** P.tTab5[i] for i in range(2))
-    rho = ((1 - xm) * rw + P.densCritWmol * rs) * M
-    return h, rho, cp
+# Solution h, rho, cp by Patek & Klomfar eqs. 2-4: the function the property table's script uses.
+from make_libr_absorptionlib import pk as props
 
 def psat_pa(t_c):
     return CP.PropsSI("P", "T", t_c + 273.15, "Q", 0, W)

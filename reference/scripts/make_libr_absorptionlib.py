@@ -38,21 +38,26 @@ def pk(x, t_c):
     rho = ((1 - xm) * rw + P.densCritWmol * rs) * M
     return h, rho, cp
 
-SRC_P = "absorptionlib 1.1.0 LiBr.saturation_pressure (Patek & Klomfar 2006 eq. 1)"
-SRC_X = "Patek & Klomfar 2006 eqs. 2-4 with absorptionlib 1.1.0 Params_PK tables and CoolProp 8.0.0 IF97 saturated water"
-SRC_C = "absorptionlib 1.1.0 LiBr.solubility_temperature (Boryta 1970 fit)"
-print("# LiBr-H2O solution properties: Patek & Klomfar (2006) via absorptionlib 1.1.0 and CoolProp 8.0.0 (PyPI).")
-print("# Made by reference/scripts/make_libr_absorptionlib.py. Tolerances: p 1e-7 relative (same closed forms);")
-print("# h, rho, cp: 1e-7 relative (same equations and water formulation; measured below 1e-8).")
-print("t_c,x,quantity,expected,tolerance,source")
-for x in (0.40, 0.45, 0.50, 0.55, 0.60, 0.65, 0.70):
-    for t in (20.0, 40.0, 60.0, 80.0, 100.0, 120.0, 140.0, 160.0, 180.0):
-        p = L.saturation_pressure(x, t) / 1000
-        print(f"{t},{x},p_kpa,{p:.10g},{max(p*1e-7,1e-9):.3g},{SRC_P}")
-        h, rho, cp = pk(x, t)
-        print(f"{t},{x},h_kj_kg,{h:.10g},{max(abs(h),100)*1e-7:.3g},{SRC_X}")
-        print(f"{t},{x},rho_kg_m3,{rho:.10g},{rho*1e-7:.3g},{SRC_X}")
-        print(f"{t},{x},cp_kj_kgk,{cp:.10g},{cp*1e-7:.3g},{SRC_X}")
-for x in (0.57, 0.60, 0.62, 0.65, 0.68, 0.70, 0.72, 0.75):
-    tc = L.solubility_temperature(x)
-    print(f"0,{x},t_cryst_c,{tc:.10g},1e-6,{SRC_C}")
+def main():
+    SRC_P = "absorptionlib 1.1.0 LiBr.saturation_pressure (Patek & Klomfar 2006 eq. 1)"
+    SRC_X = "Patek & Klomfar 2006 eqs. 2-4 with absorptionlib 1.1.0 Params_PK tables and CoolProp 8.0.0 IF97 saturated water"
+    SRC_C = "absorptionlib 1.1.0 LiBr.solubility_temperature (Boryta 1970 fit)"
+    print("# LiBr-H2O solution properties: Patek & Klomfar (2006) via absorptionlib 1.1.0 and CoolProp 8.0.0 (PyPI).")
+    print("# Made by reference/scripts/make_libr_absorptionlib.py. Tolerances: p 1e-7 relative (same closed forms);")
+    print("# h, rho, cp: 1e-7 relative (same equations and water formulation; measured below 1e-8).")
+    print("t_c,x,quantity,expected,tolerance,source")
+    for x in (0.40, 0.45, 0.50, 0.55, 0.60, 0.65, 0.70):
+        for t in (20.0, 40.0, 60.0, 80.0, 100.0, 120.0, 140.0, 160.0, 180.0):
+            p = L.saturation_pressure(x, t) / 1000
+            print(f"{t},{x},p_kpa,{p:.10g},{max(p*1e-7,1e-9):.3g},{SRC_P}")
+            h, rho, cp = pk(x, t)
+            print(f"{t},{x},h_kj_kg,{h:.10g},{max(abs(h),100)*1e-7:.3g},{SRC_X}")
+            print(f"{t},{x},rho_kg_m3,{rho:.10g},{rho*1e-7:.3g},{SRC_X}")
+            print(f"{t},{x},cp_kj_kgk,{cp:.10g},{cp*1e-7:.3g},{SRC_X}")
+    for x in (0.57, 0.60, 0.62, 0.65, 0.68, 0.70, 0.72, 0.75):
+        tc = L.solubility_temperature(x)
+        print(f"0,{x},t_cryst_c,{tc:.10g},1e-6,{SRC_C}")
+
+
+if __name__ == "__main__":
+    main()
