@@ -209,12 +209,12 @@ enum Substance {
         #[arg(long)]
         json: bool,
     },
-    /// A refrigerant or organic working fluid (Peng–Robinson): temperature or pressure with a
-    /// quality, or pressure with enthalpy or entropy, or temperature and pressure. Enthalpy and
+    /// A refrigerant, an organic working fluid (Peng–Robinson) or water/steam (IAPWS-IF97):
+    /// temperature or pressure with a quality, or pressure with enthalpy or entropy, or temperature and pressure. Enthalpy and
     /// entropy referred to the IIR convention (h = 200 kJ/kg, s = 1 kJ/(kg·K) for saturated
     /// liquid at 0 °C).
     Fluid {
-        /// R245fa, n-pentane, R1233zd(E), toluene, R134a, R32, R290, R1234ze(E).
+        /// R245fa, n-pentane, R1233zd(E), toluene, R134a, R32, R290, R1234ze(E), water.
         name: String,
         #[arg(long = "t-c", allow_negative_numbers = true)]
         t_c: Option<f64>,
@@ -496,7 +496,7 @@ fn state(s: Substance) -> Result<String, Error> {
                     value: Some(st.rho_kg_m3),
                 },
             ];
-            let title = format!("{} (Peng–Robinson)", f.name());
+            let title = format!("{} ({})", f.name(), f.model());
             Ok(if json {
                 render_json(&[("fluid", f.name())], &v)
             } else {

@@ -1,5 +1,8 @@
-//! Working fluids of organic Rankine engines and vapour-compression chillers, from the
-//! Peng–Robinson equation of state (`cubic.rs`) with each fluid's published constants.
+//! Working fluids of Rankine engines and vapour-compression chillers: eight from the
+//! Peng–Robinson equation of state (`cubic.rs`) with each fluid's published constants, and
+//! water/steam ([`Fluid::Water`]) from IAPWS-IF97 (`steam.rs`, through `seuif97`). Every public
+//! function here takes the fluid and dispatches water to `steam.rs`, so the engine and the
+//! route see one API; the Peng–Robinson notes below do not apply to water (see `steam.rs`).
 //!
 //! Enthalpy and entropy follow the IIR convention for every fluid: h = 200 kJ/kg and
 //! s = 1 kJ/(kg·K) for saturated liquid at 0 °C.
@@ -17,6 +20,7 @@
 //! few per cent, latent heat to a few per cent, enough to screen cycles, not to design them.
 
 use super::cubic::{Phase, PrFluid, PrPoint};
+use super::steam;
 use crate::error::{Error, Result};
 use std::sync::OnceLock;
 
@@ -41,6 +45,8 @@ pub enum Fluid {
     R32,
     R290,
     R1234zeE,
+    /// Water and steam (R718), IAPWS-IF97 (`steam.rs`); an engine fluid.
+    Water,
 }
 
 /// Constants of one fluid: critical point, acentric factor, molar mass, triple point, and the
@@ -223,8 +229,21 @@ const CONSTANTS: [Constants; 8] = [
 ];
 
 impl Fluid {
-    /// Every fluid, engine fluids first.
-    pub const ALL: [Fluid; 8] = [
+    /// Every fluid: the Peng–Robinson ones (engine fluids first), then water.
+    pub const ALL: [Fluid; 9] = [
+        Fluid::R245fa,
+        Fluid::NPentane,
+        Fluid::R1233zdE,
+        Fluid::Toluene,
+        Fluid::R134a,
+        Fluid::R32,
+        Fluid::R290,
+        Fluid::R1234zeE,
+        Fluid::Water,
+    ];
+
+    /// The fluids modelled by the Peng–Robinson equation (all but water).
+    pub const PENG_ROBINSON: [Fluid; 8] = [
         Fluid::R245fa,
         Fluid::NPentane,
         Fluid::R1233zdE,
@@ -239,18 +258,25 @@ impl Fluid {
         self as usize
     }
 
-    fn c(self) -> &'static Constants {
-        &CONSTANTS[self.idx()]
+    /// The Peng–Robinson constants; `None` for water.
+    fn c(self) -> Option<&'static Constants> {
+        CONSTANTS.get(self.idx())
+    }
+
+    fn aliases(self) -> &'static [&'static str] {
+        match self.c() {
+            Some(c) => c.aliases,
+            None => &["water", "steam", "r718", "h2o"],
+        }
     }
 
     /// The fluid named `name` (case-insensitive; `R245fa`, `n-pentane`, `R1233zd(E)`,
-    /// `toluene`, `R134a`, `R32`, `R290`, `R1234ze(E)` and common aliases such as `propane`).
-    /// Error `Input` on key `fluid` listing the known names.
+    /// `toluene`, `R134a`, `R32`, `R290`, `R1234ze(E)`, `water` and common aliases such as
+    /// `propane` or `steam`). Error `Input` on key `fluid` listing the known names.
     pub fn from_name(name: &str) -> Result<Fluid> {
         let n = name.trim().to_ascii_lowercase();
         for f in Fluid::ALL {
-            let c = f.c();
-            if c.name.to_ascii_lowercase() == n || c.aliases.contains(&n.as_str()) {
+            if f.name().to_ascii_lowercase() == n || f.aliases().contains(&n.as_str()) {
                 return Ok(f);
             }
         }
@@ -263,45 +289,58 @@ impl Fluid {
     }
 
     /// Display name (`R245fa`, `n-pentane`, `R1233zd(E)`, `toluene`, `R134a`, `R32`, `R290`,
-    /// `R1234ze(E)`).
+    /// `R1234ze(E)`, `water`).
     pub fn name(self) -> &'static str {
-        self.c().name
+        self.c().map_or("water", |c| c.name)
     }
 
-    /// The Peng–Robinson constants (SI) of the fluid.
-    pub fn pr(self) -> &'static PrFluid {
-        &self.c().pr
+    /// Property model, for titles: `Peng–Robinson` or `IAPWS-IF97`.
+    pub fn model(self) -> &'static str {
+        if self.c().is_some() {
+            "Peng–Robinson"
+        } else {
+            "IAPWS-IF97"
+        }
+    }
+
+    /// The Peng–Robinson constants (SI) of the fluid; `None` for water.
+    pub fn pr(self) -> Option<&'static PrFluid> {
+        self.c().map(|c| &c.pr)
     }
 
     /// Critical temperature, °C.
     pub fn t_crit_c(self) -> f64 {
-        self.c().pr.tc_k - K0
+        self.c().map_or(steam::T_CRIT_C, |c| c.pr.tc_k - K0)
     }
 
     /// Critical pressure, kPa.
     pub fn p_crit_kpa(self) -> f64 {
-        self.c().pr.pc_pa / 1000.0
+        self.c().map_or(steam::P_CRIT_KPA, |c| c.pr.pc_pa / 1000.0)
     }
 
     /// Molar mass, kg/mol.
     pub fn molar_mass_kg_mol(self) -> f64 {
-        self.c().pr.m_kg_mol
+        self.c().map_or(steam::M_KG_MOL, |c| c.pr.m_kg_mol)
     }
 
-    /// Lowest temperature of the model, °C: the largest of the triple point + 0.5 K, 0.45 Tc
-    /// and 200 K (where the cubic's liquid root is still well conditioned).
+    /// Lowest temperature of the model, °C: for Peng–Robinson fluids the largest of the triple
+    /// point + 0.5 K, 0.45 Tc and 200 K (where the cubic's liquid root is still well
+    /// conditioned); for water 0 °C (IF97's lower bound).
     pub fn t_min_c(self) -> f64 {
-        t_lo_k(self.c()) - K0
+        self.c().map_or(steam::T_MIN_C, |c| t_lo_k(c) - K0)
     }
 
-    /// Highest saturation temperature tabulated, °C: Tc − 0.5 K.
+    /// Highest saturation temperature, °C: Tc − 0.5 K (Peng–Robinson table); 350 °C for water
+    /// (IF97 region 3 not used).
     pub fn t_sat_max_c(self) -> f64 {
-        self.c().pr.tc_k - 0.5 - K0
+        self.c()
+            .map_or(steam::T_SAT_MAX_C, |c| c.pr.tc_k - 0.5 - K0)
     }
 
-    /// Highest temperature of the model, °C (upper end of the ideal-gas cp fit).
+    /// Highest temperature of the model, °C (upper end of the ideal-gas cp fit; 800 °C, the
+    /// top of IF97 region 2, for water).
     pub fn t_max_c(self) -> f64 {
-        self.c().t_max_k - K0
+        self.c().map_or(steam::T_MAX_C, |c| c.t_max_k - K0)
     }
 }
 
@@ -474,8 +513,13 @@ impl Data {
 }
 
 fn data(f: Fluid) -> Result<&'static Data> {
-    DATA[f.idx()]
-        .get_or_init(|| Data::build(f.c()).map_err(|e| e.to_string()))
+    let (Some(c), Some(cell)) = (f.c(), DATA.get(f.idx())) else {
+        return Err(Error::Internal(format!(
+            "{}: not a Peng-Robinson fluid",
+            f.name()
+        )));
+    };
+    cell.get_or_init(|| Data::build(c).map_err(|e| e.to_string()))
         .as_ref()
         .map_err(|e| Error::Internal(format!("{}: saturation table: {e}", f.name())))
 }
@@ -542,6 +586,9 @@ fn sat_from_row(t_k: f64, r: &Row) -> Saturation {
 /// Error `OutOfRange` outside. Source: Peng–Robinson (1976) by equal fugacities (`cubic.rs`),
 /// tabulated (module docs give the interpolation error).
 pub fn saturation(f: Fluid, t_c: f64) -> Result<Saturation> {
+    if f == Fluid::Water {
+        return steam::saturation(t_c);
+    }
     check_t_sat(f, t_c)?;
     let d = data(f)?;
     let t_k = t_c + K0;
@@ -549,8 +596,12 @@ pub fn saturation(f: Fluid, t_c: f64) -> Result<Saturation> {
 }
 
 /// Both saturated states at `t_c` solved directly by equal fugacities (no table): slower, used
-/// to measure the table's error. Same range and errors as [`saturation`].
+/// to measure the table's error. Same range and errors as [`saturation`]. Water has no table:
+/// the same as [`saturation`].
 pub fn saturation_direct(f: Fluid, t_c: f64) -> Result<Saturation> {
+    if f == Fluid::Water {
+        return steam::saturation(t_c);
+    }
     check_t_sat(f, t_c)?;
     let d = data(f)?;
     let t_k = t_c + K0;
@@ -579,6 +630,9 @@ pub fn sat_pressure_kpa(f: Fluid, t_c: f64) -> Result<f64> {
 ///
 /// Error `OutOfRange` outside.
 pub fn sat_temperature_c(f: Fluid, p_kpa: f64) -> Result<f64> {
+    if f == Fluid::Water {
+        return steam::sat_temperature_c(p_kpa);
+    }
     let d = data(f)?;
     check_p_sat(f, d, p_kpa)?;
     Ok(d.t_at_ln_p((p_kpa * 1000.0).ln()) - K0)
@@ -677,6 +731,9 @@ fn single_state(f: Fluid, d: &Data, t_k: f64, p_pa: f64, phase: Phase) -> Result
 /// A state exactly on the saturation line comes back as saturated vapour (q = None).
 /// Error `OutOfRange` outside. Source: Peng–Robinson (1976), departure functions (`cubic.rs`).
 pub fn state_tp(f: Fluid, t_c: f64, p_kpa: f64) -> Result<FluidState> {
+    if f == Fluid::Water {
+        return steam::state_tp(t_c, p_kpa);
+    }
     check_t(f, t_c)?;
     check_p(f, p_kpa)?;
     let d = data(f)?;
@@ -692,6 +749,13 @@ enum Target {
 }
 
 fn flash(f: Fluid, p_kpa: f64, value: f64, target: Target) -> Result<FluidState> {
+    if f == Fluid::Water {
+        let t = match target {
+            Target::H => steam::Target::H,
+            Target::S => steam::Target::S,
+        };
+        return steam::flash(p_kpa, value, t);
+    }
     check_p(f, p_kpa)?;
     if !value.is_finite() {
         return Err(out_of_range(
@@ -793,7 +857,7 @@ mod tests {
     /// within 1e-4 relative, enthalpies within 0.02 kJ/kg, inverse T(p) within 0.01 K.
     #[test]
     fn table_matches_direct_solve() {
-        for f in Fluid::ALL {
+        for f in Fluid::PENG_ROBINSON {
             let tc = f.t_crit_c() + K0;
             let d = data(f).unwrap();
             let mut worst = (0.0f64, 0.0f64, 0.0f64);

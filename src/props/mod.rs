@@ -6,4 +6,5 @@ pub mod fluids;
 pub mod glycol;
 pub mod libr;
 pub mod psychro;
+pub mod steam;
 pub mod water;

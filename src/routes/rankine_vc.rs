@@ -230,6 +230,24 @@ fn fluid(key: &str, name: &str) -> Result<Fluid> {
     })
 }
 
+/// The chiller's refrigerant: any fluid but water (a water-vapour compressor at chilled-water
+/// temperatures needs volume flows no screening model of a packaged chiller covers).
+fn chiller_fluid(name: &str) -> Result<Fluid> {
+    let f = fluid("chiller_fluid", name)?;
+    if f == Fluid::Water {
+        let known: Vec<&str> = Fluid::PENG_ROBINSON.iter().map(|f| f.name()).collect();
+        return Err(Error::input(
+            "chiller_fluid",
+            name,
+            format!(
+                "one of {} (water is an engine fluid only)",
+                known.join(", ")
+            ),
+        ));
+    }
+    Ok(f)
+}
+
 fn eff(key: &str, v: f64, meaning: &str) -> Result<()> {
     if v.is_finite() && v > 0.0 && v <= 1.0 {
         Ok(())
@@ -247,7 +265,7 @@ impl RankineVcSpec {
     /// temperatures and approaches in their ranges; the cycles themselves are checked at build.
     pub fn validate(&self) -> Result<()> {
         fluid("engine_fluid", &self.engine_fluid)?;
-        fluid("chiller_fluid", &self.chiller_fluid)?;
+        chiller_fluid(&self.chiller_fluid)?;
         for (k, v, m) in [
             ("eta_pump", self.eta_pump, "pump isentropic efficiency"),
             (
@@ -346,8 +364,12 @@ pub struct RankineVc {
 pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> {
     spec.validate()?;
     let ef = fluid("engine_fluid", &spec.engine_fluid)?;
-    let cf = fluid("chiller_fluid", &spec.chiller_fluid)?;
-    let t_evap_max = spec.t_evap_max_c.unwrap_or(ef.t_crit_c() - 15.0);
+    let cf = chiller_fluid(&spec.chiller_fluid)?;
+    // 15 K below the critical point (common practice, away from the steep near-critical
+    // region), and within the property model's saturation range (water: 350 °C).
+    let t_evap_max = spec
+        .t_evap_max_c
+        .unwrap_or((ef.t_crit_c() - 15.0).min(ef.t_sat_max_c() - 2.0));
     let engine = RankineEngine {
         cycle: RankineCycle {
             fluid: ef,
@@ -821,9 +843,17 @@ mod tests {
     #[test]
     fn bad_spec_errors() {
         let mut s = spec();
-        s.engine_fluid = "water".into();
+        s.engine_fluid = "R999".into();
         let e = build(&s, &base()).unwrap_err().to_string();
         assert!(e.contains("engine_fluid") && e.contains("R245fa"), "{e}");
+        assert!(e.contains("water"), "the list names water: {e}");
+        let mut s = spec();
+        s.chiller_fluid = "steam".into();
+        let e = build(&s, &base()).unwrap_err().to_string();
+        assert!(
+            e.contains("chiller_fluid") && e.contains("engine fluid only"),
+            "{e}"
+        );
         let mut s = spec();
         s.eta_expander = 1.2;
         assert!(build(&s, &base()).is_err());
