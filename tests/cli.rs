@@ -494,6 +494,19 @@ fn state_libr_and_fluid() {
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
     assert_eq!(v["fluid"], "R245fa");
     assert!((v["p_kpa"].as_f64().unwrap() - 1930.0).abs() < 0.02 * 1930.0);
+    // Steam at 3 MPa, 350 °C (Çengel & Boles 7th ed. Table A-6, from memory: h = 3116.1 kJ/kg,
+    // s = 6.7450 kJ/(kg·K), IAPWS-95), shifted to IIR by IF97's 200.04 kJ/kg, 1.00015 kJ/(kg·K).
+    let o = run(&[
+        "state", "fluid", "water", "--p-kpa", "3000", "--t-c", "350", "--json",
+    ]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert_eq!(v["fluid"], "water");
+    assert!(v["q"].is_null());
+    assert!((v["h_kj_kg"].as_f64().unwrap() - (3116.1 + 200.04)).abs() < 0.1);
+    assert!((v["s_kj_kg_k"].as_f64().unwrap() - (6.7450 + 1.00015)).abs() < 2e-4);
+    let o = run(&["state", "fluid", "steam", "--t-c", "360", "--q", "1"]);
+    assert_eq!(o.status.code(), Some(2), "IF97 region 3 is refused");
+    assert!(stderr(&o).contains("350"), "{}", stderr(&o));
     let o = run(&["state", "fluid", "R999", "--t-c", "1", "--q", "1"]);
     assert_eq!(o.status.code(), Some(2));
     assert!(

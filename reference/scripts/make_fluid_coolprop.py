@@ -9,7 +9,9 @@ Writes
   fluid files) and a quartic least-squares fit of the ideal-gas heat capacity cp0/R to
   CoolProp's CP0MOLAR (its Helmholtz ideal-gas part), pasted into src/props/fluids.rs;
 * reference/fluid_coolprop.csv – saturation pressure, latent heat, saturated liquid and vapour
-  enthalpy (IIR reference state: h = 200 kJ/kg, s = 1 kJ/(kg K) for saturated liquid at 0 C);
+  enthalpy (IIR reference state: h = 200 kJ/kg, s = 1 kJ/(kg K) for saturated liquid at 0 C),
+  for the eight Peng-Robinson fluids and for water (IAPWS-95; shifted to IIR by hand, since
+  CoolProp refuses the IIR state below water's triple point);
 * reference/rankine_coolprop.csv – organic Rankine efficiency and vapour-compression COP of the
   cycles defined in src/components/rankine.rs and vapour_compression.rs, computed with CoolProp.
 
@@ -57,7 +59,11 @@ def constants(out):
 
 ENGINE_T = [0.0, 30.0, 60.0, 90.0, 120.0]
 CHILL_T = [-20.0, 0.0, 20.0, 40.0, 60.0]
+# Water (IAPWS-95 in CoolProp) has no Peng-Robinson constants: it is only in the saturation and
+# cycle tables, checking src/props/steam.rs (IAPWS-IF97 through seuif97).
+WATER_T = [5.0, 50.0, 100.0, 150.0, 200.0, 250.0, 300.0, 340.0]
 T_OF = {
+    "water": WATER_T,
     "R245fa": ENGINE_T, "n-pentane": ENGINE_T, "R1233zd(E)": ENGINE_T,
     "toluene": [30.0, 90.0, 150.0, 200.0, 250.0],
     "R134a": CHILL_T, "R32": CHILL_T, "R290": CHILL_T, "R1234ze(E)": CHILL_T,
@@ -71,13 +77,19 @@ def sat_table(out):
     out.write("# the measured worst Peng-Robinson deviation over the fluid's rows (see\n")
     out.write("# reference/fluid_coolprop_deviation.csv) x 1.2 rounded up: relative for psat, absolute for h.\n")
     out.write("fluid,t_c,quantity,expected,tolerance,source\n")
-    for name, cp, _ in FLUIDS:
-        CP.set_reference_state(cp, "IIR")
+    for name, cp, _ in FLUIDS + [("water", "Water", None)]:
+        if cp == "Water":
+            # CoolProp refuses the IIR state for water (0 C is below its triple point,
+            # 0.01 C), but evaluates the saturated liquid there: shift by hand.
+            dh = 200.0 - CP.PropsSI("H", "T", 273.15, "Q", 0, cp) / 1e3
+        else:
+            CP.set_reference_state(cp, "IIR")
+            dh = 0.0
         for t in T_OF[name]:
             T = t + 273.15
             p = CP.PropsSI("P", "T", T, "Q", 0, cp) / 1e3
-            hl = CP.PropsSI("H", "T", T, "Q", 0, cp) / 1e3
-            hv = CP.PropsSI("H", "T", T, "Q", 1, cp) / 1e3
+            hl = CP.PropsSI("H", "T", T, "Q", 0, cp) / 1e3 + dh
+            hv = CP.PropsSI("H", "T", T, "Q", 1, cp) / 1e3 + dh
             for q, v in [("psat_kpa", p), ("hfg_kj_kg", hv - hl), ("h_liq_kj_kg", hl), ("h_vap_kj_kg", hv)]:
                 out.write(f"{name},{t},{q},{v:.6g},TOL,{SRC}\n")
         CP.set_reference_state(cp, "DEF")
@@ -126,10 +138,13 @@ def cycles(out):
     out.write("# measured worst relative Peng-Robinson deviation (reference/fluid_coolprop_deviation.csv) x 1.2 x expected.\n")
     out.write("cycle,fluid,t_evap_c,t_cond_c,superheat_k,subcool_k,eta_pump,eta_machine,recuperator,quantity,expected,tolerance,source\n")
     src = "CoolProp 6.6.0 (PyPI) cycle"
-    for name, cp in [("R245fa", "R245fa"), ("n-pentane", "n-Pentane"), ("R1233zd(E)", "R1233zd(E)"), ("toluene", "Toluene")]:
+    for name, cp in [("R245fa", "R245fa"), ("n-pentane", "n-Pentane"), ("R1233zd(E)", "R1233zd(E)"), ("toluene", "Toluene"), ("water", "Water")]:
         cases = [(80, 30, 0, 0.6, 0.75, 0), (100, 35, 5, 0.6, 0.75, 0), (120, 40, 10, 0.6, 0.8, 0.7), (130, 30, 0, 1.0, 1.0, 0)]
         if name == "toluene":
             cases = [(150, 40, 0, 0.6, 0.75, 0), (200, 40, 10, 0.6, 0.8, 0.8), (250, 60, 0, 1.0, 1.0, 0)]
+        if name == "water":
+            # Steam expansion ends wet, where the recuperator does nothing: none here.
+            cases = [(120, 40, 0, 0.6, 0.75, 0), (150, 40, 5, 0.6, 0.75, 0), (180, 45, 10, 0.7, 0.8, 0), (200, 40, 0, 1.0, 1.0, 0), (300, 50, 40, 0.8, 0.85, 0)]
         for te, tc, sh, ep, ee, eps in cases:
             v = rankine(cp, te, tc, sh, ep, ee, eps)
             out.write(f"rankine,{name},{te},{tc},{sh},0,{ep},{ee},{eps},eta_th,{v:.6g},TOL,{src}\n")

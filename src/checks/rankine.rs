@@ -2,12 +2,15 @@
 //! compression cycle (groups `fluid`, `rankine`, `vc`).
 //!
 //! * `fluid_coolprop.csv` – saturation pressure, latent heat, saturated liquid and vapour
-//!   enthalpy (IIR) of the eight fluids against CoolProp 6.6.0 (PyPI), tolerances from the
-//!   measured Peng–Robinson deviation (`fluid_coolprop_deviation.csv`).
+//!   enthalpy (IIR) of the eight Peng–Robinson fluids and of water (IAPWS-IF97) against
+//!   CoolProp 6.6.0 (PyPI; IAPWS-95 for water), tolerances from the measured deviation
+//!   (`fluid_coolprop_deviation.csv`).
 //! * `rankine_coolprop.csv` – whole-cycle Rankine efficiency and VC COP against the same cycles
 //!   with CoolProp 6.6.0 properties.
 //! * `rankine_textbook.csv` – Çengel & Boles 7th ed. Example 11-1 (ideal R-134a refrigerator)
 //!   and facts of the trade (common practice).
+//! * `steam_textbook.csv` – Çengel & Boles 7th ed. Examples 10-1, 10-2 and 10-3: ideal and
+//!   actual steam Rankine cycles, computed at the book's states with the water model.
 
 use super::Check;
 use super::table::{Row, parse};
@@ -19,6 +22,7 @@ use crate::props::fluids::{self, Fluid};
 const FLUID: &str = include_str!("../../reference/fluid_coolprop.csv");
 const CYCLES: &str = include_str!("../../reference/rankine_coolprop.csv");
 const TEXTBOOK: &str = include_str!("../../reference/rankine_textbook.csv");
+const STEAM: &str = include_str!("../../reference/steam_textbook.csv");
 
 fn unknown(table: &str, q: &str) -> Error {
     Error::Internal(format!("reference/{table}: unknown quantity `{q}`"))
@@ -111,8 +115,52 @@ pub fn checks() -> Result<Vec<Check>> {
         });
     }
     textbook(&mut out)?;
+    const TS: &str = "steam_textbook.csv";
+    for row in parse(TS, STEAM)? {
+        let (expected, tolerance, source) = row.expected()?;
+        let q = row.str("quantity")?;
+        out.push(Check {
+            group: "rankine",
+            table: TS,
+            case: format!("{} water, {q}", row.str("case")?),
+            value: steam_states_value(&row, q)?,
+            expected,
+            tolerance,
+            source,
+        });
+    }
     computed(&mut out)?;
     Ok(out)
+}
+
+/// One `steam_textbook.csv` row: the book's cycle at the book's states (the table's header
+/// gives the method), water from `props::steam` through the fluids API.
+fn steam_states_value(row: &Row, q: &str) -> Result<f64> {
+    let w = Fluid::Water;
+    let p1 = row.f64("p1_kpa")?;
+    let st1 = match row.str("t1_c")? {
+        "sat" => fluids::state_pq(w, p1, 0.0)?,
+        _ => fluids::state_tp(w, row.f64("t1_c")?, p1)?,
+    };
+    let w_pump = (row.f64("p2_kpa")? - p1) / st1.rho_kg_m3 / row.f64("eta_pump")?;
+    let h3 = match row.str("t3_c")? {
+        "pump" => st1.h_kj_kg + w_pump,
+        _ => fluids::state_tp(w, row.f64("t3_c")?, row.f64("p3_kpa")?)?.h_kj_kg,
+    };
+    let h4 = fluids::state_tp(w, row.f64("t4_c")?, row.f64("p4_kpa")?)?.h_kj_kg;
+    let st5 = fluids::state_tp(w, row.f64("t5_c")?, row.f64("p5_kpa")?)?;
+    let st6s = fluids::state_ps(w, row.f64("p6_kpa")?, st5.s_kj_kg_k)?;
+    let w_turbine = row.f64("eta_turbine")? * (st5.h_kj_kg - st6s.h_kj_kg);
+    Ok(match q {
+        "eta_th" => (w_turbine - w_pump) / (h4 - h3),
+        "w_pump_kj_kg" => w_pump,
+        "w_turbine_kj_kg" => w_turbine,
+        "q_in_kj_kg" => h4 - h3,
+        "x6s" => st6s.q.ok_or_else(|| {
+            Error::Internal("steam_textbook.csv: turbine exit is not two-phase".into())
+        })?,
+        _ => return Err(unknown("steam_textbook.csv", q)),
+    })
 }
 
 /// `rankine_textbook.csv`: worked examples and facts of the trade.
@@ -323,7 +371,8 @@ mod tests {
             w.1 = w.1.max(((v - e) / e).abs());
         }
         let mut s = String::from(
-            "# Worst deviation of the Peng-Robinson model (src/props/fluids.rs) from CoolProp 6.6.0\n\
+            "# Worst deviation of the property models from CoolProp 6.6.0 (Peng-Robinson, src/props/fluids.rs;\n\
+             # water: IAPWS-IF97, src/props/steam.rs, against CoolProp's IAPWS-95)\n\
              # over the rows of fluid_coolprop.csv and rankine_coolprop.csv, per fluid and quantity.\n\
              # Written by `cargo test --lib checks::rankine -- --ignored write_deviation_table`.\n\
              fluid,quantity,max_abs_dev,max_rel_dev\n",

@@ -1,5 +1,5 @@
-//! Organic Rankine engine driven by pressurised hot water: pump, evaporator (with optional
-//! superheat), expander, optional recuperator, condenser.
+//! Rankine engine (organic working fluid or steam) driven by pressurised hot water: pump,
+//! evaporator (with optional superheat), expander, optional recuperator, condenser.
 //!
 //! Cycle (per kg of working fluid), states as in every thermodynamics text:
 //! 1 saturated liquid at the condensing temperature; 2 pump outlet at the evaporating
@@ -393,6 +393,7 @@ mod tests {
             Fluid::NPentane,
             Fluid::R1233zdE,
             Fluid::Toluene,
+            Fluid::Water,
         ] {
             let mut c = cycle(f);
             c.recuperator = 0.6;
@@ -415,6 +416,23 @@ mod tests {
         let b = c.solve(110.0, 35.0).unwrap();
         assert!(b.eta_th > a.eta_th + 0.005, "{} {}", a.eta_th, b.eta_th);
         assert!((b.w_net_kj_kg() - a.w_net_kj_kg()).abs() < 1e-9);
+    }
+
+    /// Steam is a wet fluid: from saturated or slightly superheated vapour the expansion ends
+    /// inside the dome (Çengel & Boles 7th ed. Example 10-1: x4 = 0.886), so the recuperator
+    /// finds nothing to recover and leaves the cycle unchanged.
+    #[test]
+    fn steam_expansion_ends_wet() {
+        let a = cycle(Fluid::Water).solve(150.0, 40.0).unwrap();
+        let mut c = cycle(Fluid::Water);
+        c.recuperator = 0.7;
+        let b = c.solve(150.0, 40.0).unwrap();
+        let x4 = fluids::state_ph(Fluid::Water, a.p_cond_kpa, a.h_kj_kg[4])
+            .unwrap()
+            .q;
+        assert!(x4.is_some_and(|x| x > 0.8 && x < 1.0), "{x4:?}");
+        assert_eq!(b.q_rec_kj_kg, 0.0);
+        assert_eq!(a.eta_th, b.eta_th);
     }
 
     /// Sliding evaporation: 100 °C water → T_evap = 100 − 8 − 5 = 87 °C; capped at 120 °C.
@@ -467,6 +485,26 @@ mod tests {
             prop_assert!(p.s_gen_internal_kj_kgk >= -1e-9);
             prop_assert!(p.eta_th > 0.0 && p.eta_th < op.eta_carnot);
             // Entropy of the surroundings: heat out at the sink, in from the supply.
+            let s_gen = p.q_out_kj_kg / (t_sink + K0) - p.q_in_kj_kg / (t_supply + K0);
+            prop_assert!(s_gen > 0.0);
+        }
+
+        /// The same laws for a steam engine (IAPWS-IF97) up to 220 °C supply.
+        #[test]
+        fn laws_hold_steam(t_supply in 90.0f64..220.0, t_sink in 15.0f64..40.0,
+                           ep in 0.3f64..1.0, ee in 0.4f64..1.0, sh in 0.0f64..10.0) {
+            let mut e = engine();
+            e.cycle = cycle(Fluid::Water);
+            e.cycle.eta_pump = ep;
+            e.cycle.eta_expander = ee;
+            e.cycle.superheat_k = sh;
+            e.t_evap_max_c = 200.0;
+            prop_assume!(t_supply >= e.t_supply_min_c(t_sink));
+            let op = e.operate(t_supply, t_sink).unwrap();
+            let p = op.point;
+            prop_assert!((p.q_in_kj_kg - p.q_out_kj_kg - p.w_net_kj_kg()).abs() < 1e-8);
+            prop_assert!(p.s_gen_internal_kj_kgk >= -1e-9);
+            prop_assert!(p.eta_th > 0.0 && p.eta_th < op.eta_carnot);
             let s_gen = p.q_out_kj_kg / (t_sink + K0) - p.q_in_kj_kg / (t_supply + K0);
             prop_assert!(s_gen > 0.0);
         }
