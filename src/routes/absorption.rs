@@ -24,7 +24,7 @@
 //! evaluations) ≈ 40 residual evaluations of ~14 property calls each, plus two tower Brent
 //! solves (~12 psychrometric evaluations each).
 
-use super::{HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour};
+use super::{HeatRequest, HeatSupplied, HourConditions, Memo, Reason, Route, RouteHour};
 use crate::components::absorption_cycle::{CyclePoint, Machine, Mode, Rating};
 use crate::components::absorption_fit::{self, Datasheet, FitReport};
 use crate::components::chiller_electric::ChillerSpec;
@@ -268,36 +268,14 @@ pub struct Absorption {
     /// The last solved hour and cycle point: `run` repeats `heat_request`'s solve for the same
     /// hour and store temperature (served from here), and each solve starts from the last
     /// cycle point (warm start).
-    memo: Memo,
+    memo: Memo<MemoState>,
 }
-
-/// Memory of the last solve. Each option owns its route, so the lock is never contended;
-/// a fresh copy (clone) starts empty.
-#[derive(Debug, Default)]
-struct Memo(std::sync::Mutex<MemoState>);
 
 #[derive(Debug, Default, Clone, Copy)]
 struct MemoState {
     key: Option<(usize, u64)>,
     hour: Option<AbsorptionHour>,
     warm: Option<CyclePoint>,
-}
-
-impl Clone for Memo {
-    fn clone(&self) -> Self {
-        Memo::default()
-    }
-}
-
-impl Memo {
-    fn get(&self) -> MemoState {
-        self.0.lock().map(|g| *g).unwrap_or_default()
-    }
-    fn set(&self, m: MemoState) {
-        if let Ok(mut g) = self.0.lock() {
-            *g = m;
-        }
-    }
 }
 
 /// Fit the machine the section rates to a datasheet (see `components::absorption_fit`): the

@@ -168,6 +168,32 @@ impl Default for RouteHour {
     }
 }
 
+/// Memory of a route's last solve, behind `&self`: the plant loop asks `heat_request` and then
+/// `run` for the same hour and temperatures, and a route keeps what it solved for the first to
+/// serve the second (and as a warm start for the next hour). Each option owns its route, so the
+/// lock is never contended; a clone starts empty, so copies never share state.
+#[derive(Debug, Default)]
+pub(crate) struct Memo<T>(std::sync::Mutex<T>);
+
+impl<T: Default> Clone for Memo<T> {
+    fn clone(&self) -> Self {
+        Memo::default()
+    }
+}
+
+impl<T: Default + Copy> Memo<T> {
+    /// The stored state (the default if the lock was poisoned).
+    pub(crate) fn get(&self) -> T {
+        self.0.lock().map(|g| *g).unwrap_or_default()
+    }
+    /// Replace the stored state.
+    pub(crate) fn set(&self, m: T) {
+        if let Ok(mut g) = self.0.lock() {
+            *g = m;
+        }
+    }
+}
+
 /// A cooling route stepped by the plant loop.
 pub trait Route: Send + Sync {
     /// Route name as written in the scenario (`electric`, ...).

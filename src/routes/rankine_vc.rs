@@ -21,10 +21,11 @@
 //! asks only for the heat that drives the compressor.
 //!
 //! Per hour: 2 Rankine flashes + 2 VC flashes per solve (Brent, ~10 iterations of one cubic
-//! each), table look-ups otherwise; `heat_request` and `run` each solve the hour once, from
-//! the same store-top temperature (the route keeps no state between calls).
+//! each), table look-ups otherwise. `heat_request` and `run` see the same hour's temperatures:
+//! the engine and chiller solved for the first are kept (keyed by the exact supply and sink
+//! temperatures) and serve the second, so each hour solves the two cycles once.
 
-use super::{HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour};
+use super::{HeatRequest, HeatSupplied, HourConditions, Memo, Reason, Route, RouteHour};
 use crate::components::chiller_electric::ChillerSpec;
 use crate::components::rankine::{EngineOp, RankineCycle, RankineEngine};
 use crate::components::vapour_compression::{ChillerOp, VcChiller, VcCycle};
@@ -354,6 +355,17 @@ pub struct RankineVc {
     /// The wet cooling tower both cycles reject heat through (`sink = "wet"`), sized at the
     /// design heat rejected; it gives the hour's water use and fan electricity.
     pub tower: Option<crate::components::cooling_tower::Tower>,
+    /// The last engine and chiller solves (module docs).
+    memo: Memo<CycleMemo>,
+}
+
+/// The engine at the last (supply, sink) and the chiller at the last sink, by their bits.
+#[derive(Debug, Default, Clone, Copy)]
+struct CycleMemo {
+    engine_key: Option<(u64, u64)>,
+    engine: Option<EngineOp>,
+    chiller_key: Option<u64>,
+    chiller: Option<ChillerOp>,
 }
 
 /// Build the route: size the chiller at its design capacity (design sink, chilled water) and
@@ -434,6 +446,7 @@ pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> 
         Sink::Dry => None,
     };
     Ok(RankineVc {
+        memo: Memo::default(),
         tower,
         engine,
         chiller,
@@ -509,6 +522,34 @@ pub struct RankineVcHour {
 }
 
 impl RankineVc {
+    /// The engine at (`t_supply`, `t_sink`) and, if `chiller` is asked, the chiller at
+    /// `t_sink` (`None` where a cycle cannot run), from the memo when the temperatures are
+    /// those of the last solve.
+    fn cycles(
+        &self,
+        t_supply: f64,
+        t_sink: f64,
+        chiller: bool,
+    ) -> (Option<EngineOp>, Option<ChillerOp>) {
+        let mut m = self.memo.get();
+        let ek = (t_supply.to_bits(), t_sink.to_bits());
+        if m.engine_key != Some(ek) {
+            m.engine = self.engine.operate(t_supply, t_sink).ok();
+            m.engine_key = Some(ek);
+        }
+        let c = if chiller {
+            if m.chiller_key != Some(t_sink.to_bits()) {
+                m.chiller = self.chiller.operate(self.t_chw_c, t_sink).ok();
+                m.chiller_key = Some(t_sink.to_bits());
+            }
+            m.chiller
+        } else {
+            None
+        };
+        self.memo.set(m);
+        (m.engine, c)
+    }
+
     /// Condenser sink temperature this hour, °C: wet `t_wb + approach`, dry `t_db + approach`,
     /// at least `t_sink_min_c`. The one place to point at a shared cooling-tower model.
     pub fn t_sink_c(&self, c: &HourConditions) -> f64 {
@@ -566,12 +607,7 @@ impl RankineVc {
             heat_wanted_kwh: 0.0,
             reason: RankineVcReason::NoLoad,
         };
-        let engine: Option<EngineOp> = self.engine.operate(t_supply, t_sink).ok();
-        let chiller: Option<ChillerOp> = if load > 0.0 {
-            self.chiller.operate(self.t_chw_c, t_sink).ok()
-        } else {
-            None
-        };
+        let (engine, chiller) = self.cycles(t_supply, t_sink, load > 0.0);
         let (cooling, w_shaft) = match &chiller {
             Some(op) => {
                 let q = load.min(op.capacity_kw);
@@ -747,6 +783,31 @@ mod tests {
 
     /// Hot store, full sun: the engine alone drives the compressor; the heat asked is the
     /// compressor shaft over η_th; cooling / heat = η_th · η_mech · COP (shaft balance).
+    /// The memo only saves work: an hour asked of a route that has just solved other
+    /// temperatures gives, bit for bit, what a freshly built route gives.
+    #[test]
+    fn memo_changes_no_result() {
+        let used = build(&spec(), &base()).unwrap();
+        let heat = Some(HeatSupplied {
+            solar_kwh: 20.0,
+            backup_kwh: 0.0,
+        });
+        for (load, t_wb, t_top) in [
+            (60.0, 24.0, 130.0),
+            (60.0, 24.0, 130.0),
+            (60.0, 20.0, 130.0),
+            (0.0, 20.0, 110.0),
+            (40.0, 20.0, 110.0),
+        ] {
+            let c = hour(load, t_wb);
+            let a = used.solve_hour(&c, Some(t_top), heat);
+            let b = build(&spec(), &base())
+                .unwrap()
+                .solve_hour(&c, Some(t_top), heat);
+            assert_eq!(format!("{a:?}"), format!("{b:?}"));
+        }
+    }
+
     #[test]
     fn hot_store_engine_carries_shaft() {
         let r = build(&spec(), &base()).unwrap();
