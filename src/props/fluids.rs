@@ -229,19 +229,6 @@ const CONSTANTS: [Constants; 8] = [
 ];
 
 impl Fluid {
-    /// Every fluid: the Peng–Robinson ones (engine fluids first), then water.
-    pub const ALL: [Fluid; 9] = [
-        Fluid::R245fa,
-        Fluid::NPentane,
-        Fluid::R1233zdE,
-        Fluid::Toluene,
-        Fluid::R134a,
-        Fluid::R32,
-        Fluid::R290,
-        Fluid::R1234zeE,
-        Fluid::Water,
-    ];
-
     /// The fluids modelled by the Peng–Robinson equation (all but water).
     pub const PENG_ROBINSON: [Fluid; 8] = [
         Fluid::R245fa,
@@ -253,6 +240,17 @@ impl Fluid {
         Fluid::R290,
         Fluid::R1234zeE,
     ];
+
+    /// Every fluid: the Peng–Robinson ones (engine fluids first), then water.
+    pub const ALL: [Fluid; 9] = {
+        let mut all = [Fluid::Water; 9];
+        let mut i = 0;
+        while i < Fluid::PENG_ROBINSON.len() {
+            all[i] = Fluid::PENG_ROBINSON[i];
+            i += 1;
+        }
+        all
+    };
 
     fn idx(self) -> usize {
         self as usize
