@@ -1,4 +1,4 @@
-//! Reference checks for the working fluids, the organic Rankine engine and the vapour-
+//! Reference checks for the working fluids, the Rankine engine (organic or steam) and the vapour-
 //! compression cycle (groups `fluid`, `rankine`, `vc`).
 //!
 //! * `fluid_coolprop.csv` – saturation pressure, latent heat, saturated liquid and vapour

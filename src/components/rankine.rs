@@ -131,7 +131,7 @@ impl RankineCycle {
         let f = self.fluid;
         if !(t_evap_c.is_finite() && t_cond_c.is_finite() && t_evap_c - t_cond_c >= MIN_LIFT_K) {
             return Err(Error::OutOfRange {
-                model: "organic Rankine cycle",
+                model: "Rankine cycle",
                 quantity: "evaporating minus condensing temperature, K",
                 value: t_evap_c - t_cond_c,
                 range: format!("at least {MIN_LIFT_K} K"),
@@ -178,7 +178,7 @@ impl RankineCycle {
         let eta = (w_e - w_p) / q_in;
         if !(eta.is_finite() && q_in > 0.0) {
             return Err(Error::Internal(format!(
-                "organic Rankine cycle ({}) at {t_evap_c}/{t_cond_c} °C: no heat in",
+                "Rankine cycle ({}) at {t_evap_c}/{t_cond_c} °C: no heat in",
                 f.name()
             )));
         }
@@ -328,7 +328,7 @@ impl RankineEngine {
         let t_min = self.t_supply_min_c(t_sink_c);
         if t_supply_c < t_min - 1e-9 {
             return Err(Error::OutOfRange {
-                model: "organic Rankine engine",
+                model: "Rankine engine",
                 quantity: "hot-water supply temperature, °C",
                 value: t_supply_c,
                 range: format!("at least {t_min:.2} °C at a sink of {t_sink_c} °C"),
@@ -346,7 +346,7 @@ impl RankineEngine {
         let eta_carnot = 1.0 - (t_sink_c + K0) / (t_supply_c + K0);
         if pt.eta_th > eta_carnot || pt.s_gen_internal_kj_kgk < -1e-9 {
             return Err(Error::Internal(format!(
-                "organic Rankine engine: efficiency {} above Carnot {} (or negative entropy generation {})",
+                "Rankine engine: efficiency {} above Carnot {} (or negative entropy generation {})",
                 pt.eta_th, eta_carnot, pt.s_gen_internal_kj_kgk
             )));
         }

@@ -1,5 +1,6 @@
-//! Route `rankine-vc`: a solar organic Rankine engine on the same shaft as the compressor of a
-//! vapour-compression chiller, with an electric motor carrying what the engine cannot.
+//! Route `rankine-vc`: a solar Rankine engine (organic working fluid or steam) on the same shaft as
+//! the compressor of a vapour-compression chiller, with an electric motor carrying what the engine
+//! cannot.
 //!
 //! Shaft balance each hour: `W_engine + W_motor = W_compressor / η_mech`. The engine is limited
 //! by the driving heat supplied (`W_engine = η_th · heat`, at most its design shaft power); the
