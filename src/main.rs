@@ -210,9 +210,9 @@ enum Substance {
         json: bool,
     },
     /// A refrigerant, an organic working fluid (Peng–Robinson) or water/steam (IAPWS-IF97):
-    /// temperature or pressure with a quality, or pressure with enthalpy or entropy, or temperature and pressure. Enthalpy and
-    /// entropy referred to the IIR convention (h = 200 kJ/kg, s = 1 kJ/(kg·K) for saturated
-    /// liquid at 0 °C).
+    /// temperature or pressure with a quality, or pressure with enthalpy or entropy, or
+    /// temperature and pressure. Enthalpy and entropy referred to the IIR convention
+    /// (h = 200 kJ/kg, s = 1 kJ/(kg·K) for saturated liquid at 0 °C).
     Fluid {
         /// R245fa, n-pentane, R1233zd(E), toluene, R134a, R32, R290, R1234ze(E), water.
         name: String,

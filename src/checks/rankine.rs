@@ -115,13 +115,20 @@ pub fn checks() -> Result<Vec<Check>> {
         });
     }
     textbook(&mut out)?;
-    const TS: &str = "steam_textbook.csv";
-    for row in parse(TS, STEAM)? {
+    steam_textbook(&mut out)?;
+    computed(&mut out)?;
+    Ok(out)
+}
+
+/// `steam_textbook.csv`: the book's steam cycles.
+fn steam_textbook(out: &mut Vec<Check>) -> Result<()> {
+    const T: &str = "steam_textbook.csv";
+    for row in parse(T, STEAM)? {
         let (expected, tolerance, source) = row.expected()?;
         let q = row.str("quantity")?;
         out.push(Check {
             group: "rankine",
-            table: TS,
+            table: T,
             case: format!("{} water, {q}", row.str("case")?),
             value: steam_states_value(&row, q)?,
             expected,
@@ -129,8 +136,7 @@ pub fn checks() -> Result<Vec<Check>> {
             source,
         });
     }
-    computed(&mut out)?;
-    Ok(out)
+    Ok(())
 }
 
 /// One `steam_textbook.csv` row: the book's cycle at the book's states (the table's header

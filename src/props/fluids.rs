@@ -258,7 +258,10 @@ impl Fluid {
 
     /// The Peng–Robinson constants; `None` for water.
     fn c(self) -> Option<&'static Constants> {
-        CONSTANTS.get(self.idx())
+        match self {
+            Fluid::Water => None,
+            f => Some(&CONSTANTS[f.idx()]),
+        }
     }
 
     fn aliases(self) -> &'static [&'static str] {
@@ -299,11 +302,6 @@ impl Fluid {
         } else {
             "IAPWS-IF97"
         }
-    }
-
-    /// The Peng–Robinson constants (SI) of the fluid; `None` for water.
-    pub fn pr(self) -> Option<&'static PrFluid> {
-        self.c().map(|c| &c.pr)
     }
 
     /// Critical temperature, °C.
@@ -739,28 +737,39 @@ pub fn state_tp(f: Fluid, t_c: f64, p_kpa: f64) -> Result<FluidState> {
     single_state(f, d, t_k, p_pa, d.phase_at(t_k, p_pa))
 }
 
-/// Which of h or s a flash matches.
+/// Which of h or s a flash matches (shared with `steam.rs`).
 #[derive(Clone, Copy)]
-enum Target {
+pub(crate) enum Target {
     H,
     S,
 }
 
+impl Target {
+    /// The quantity matched, for error messages.
+    pub(crate) fn quantity(self) -> &'static str {
+        match self {
+            Target::H => "enthalpy, kJ/kg",
+            Target::S => "entropy, kJ/(kg·K)",
+        }
+    }
+
+    /// `h` or `s`, whichever is matched.
+    pub(crate) fn pick(self, h: f64, s: f64) -> f64 {
+        match self {
+            Target::H => h,
+            Target::S => s,
+        }
+    }
+}
+
 fn flash(f: Fluid, p_kpa: f64, value: f64, target: Target) -> Result<FluidState> {
     if f == Fluid::Water {
-        let t = match target {
-            Target::H => steam::Target::H,
-            Target::S => steam::Target::S,
-        };
-        return steam::flash(p_kpa, value, t);
+        return steam::flash(p_kpa, value, target);
     }
     check_p(f, p_kpa)?;
     if !value.is_finite() {
         return Err(out_of_range(
-            match target {
-                Target::H => "enthalpy, kJ/kg",
-                Target::S => "entropy, kJ/(kg·K)",
-            },
+            target.quantity(),
             value,
             "a finite number".into(),
         ));
@@ -768,10 +777,7 @@ fn flash(f: Fluid, p_kpa: f64, value: f64, target: Target) -> Result<FluidState>
     let d = data(f)?;
     let p_pa = p_kpa * 1000.0;
     let ln_p = p_pa.ln();
-    let pick = |h: f64, s: f64| match target {
-        Target::H => h,
-        Target::S => s,
-    };
+    let pick = |h: f64, s: f64| target.pick(h, s);
     let (t_lo, t_hi, phase) = if ln_p >= d.ln_p_lo() && ln_p <= d.ln_p_hi() {
         let t_s = d.t_at_ln_p(ln_p);
         let r = d.at_t(t_s);
@@ -801,10 +807,7 @@ fn flash(f: Fluid, p_kpa: f64, value: f64, target: Target) -> Result<FluidState>
     if !(g_lo <= 0.0 && g_hi >= 0.0) {
         let (lo_v, hi_v) = (g_lo + value, g_hi + value);
         return Err(out_of_range(
-            match target {
-                Target::H => "enthalpy, kJ/kg",
-                Target::S => "entropy, kJ/(kg·K)",
-            },
+            target.quantity(),
             value,
             format!(
                 "{lo_v:.3}..{hi_v:.3} for {} at {p_kpa} kPa ({:.1}..{:.1} °C, range of the model)",

@@ -30,7 +30,7 @@
 //! `reference/fluid_coolprop.csv` and against the steam Rankine cycles of
 //! `reference/rankine_steam.csv`.
 
-use super::fluids::{Fluid, FluidState, Saturation};
+use super::fluids::{Fluid, FluidState, Saturation, Target};
 use crate::error::{Error, Result};
 use seuif97::{OH, OP, OS, OT, OV};
 use std::sync::OnceLock;
@@ -110,9 +110,10 @@ fn check_t_sat(t_c: f64) -> Result<()> {
     }
 }
 
-/// Saturation pressure at 0 °C, kPa (lowest of the saturation line).
+/// Saturation pressure at 0 °C, kPa (lowest of the saturation line; computed once).
 fn p_sat_min_kpa() -> f64 {
-    seuif97::tx(T_MIN_C, 0.0, OP) * 1000.0
+    static P: OnceLock<f64> = OnceLock::new();
+    *P.get_or_init(|| seuif97::tx(T_MIN_C, 0.0, OP) * 1000.0)
 }
 
 /// Both saturated states of water at `t_c` °C.
@@ -225,22 +226,6 @@ pub fn state_tp(t_c: f64, p_kpa: f64) -> Result<FluidState> {
     single(t_c, p_kpa, region_at(t_c, p_kpa)?)
 }
 
-/// Which of h or s a flash matches.
-#[derive(Clone, Copy)]
-pub(crate) enum Target {
-    H,
-    S,
-}
-
-impl Target {
-    fn quantity(self) -> &'static str {
-        match self {
-            Target::H => "enthalpy, kJ/kg",
-            Target::S => "entropy, kJ/(kg·K)",
-        }
-    }
-}
-
 /// State at `p_kpa` and enthalpy or entropy `value` (IIR): the lever rule inside the dome,
 /// else Brent's method (1e-9 K) on the forward equation of the single-phase region.
 ///
@@ -255,10 +240,7 @@ pub(crate) fn flash(p_kpa: f64, value: f64, target: Target) -> Result<FluidState
             "a finite number".into(),
         ));
     }
-    let pick = |h: f64, s: f64| match target {
-        Target::H => h,
-        Target::S => s,
-    };
+    let pick = |h: f64, s: f64| target.pick(h, s);
     let p_mpa = p_kpa / 1000.0;
     let (t_lo, t_hi, region) = if p_kpa >= p_sat_min_kpa() {
         let t_s = sat_temperature_c(p_kpa)?;

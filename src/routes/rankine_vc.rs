@@ -782,8 +782,6 @@ mod tests {
         }
     }
 
-    /// Hot store, full sun: the engine alone drives the compressor; the heat asked is the
-    /// compressor shaft over η_th; cooling / heat = η_th · η_mech · COP (shaft balance).
     /// The memo only saves work: an hour asked of a route that has just solved other
     /// temperatures gives, bit for bit, what a freshly built route gives.
     #[test]
@@ -809,6 +807,8 @@ mod tests {
         }
     }
 
+    /// Hot store, full sun: the engine alone drives the compressor; the heat asked is the
+    /// compressor shaft over η_th; cooling / heat = η_th · η_mech · COP (shaft balance).
     #[test]
     fn hot_store_engine_carries_shaft() {
         let r = build(&spec(), &base()).unwrap();
