@@ -10,7 +10,9 @@
 #   2 after the pump (h2 = h1 + v1 (p_h - p_l)); 3 after the SHX; 5 strong after the SHX, 6 = 5 throttled;
 #   7 vapour leaving the generator at the weak solution's equilibrium temperature at p_h;
 #   8 saturated liquid at t_c; 10 saturated vapour at t_e.
-#   SHX duty = eps * min(C_weak, C_strong) * (t4 - t1), capacity rates from cp at the inlets.
+#   SHX: the strong stream leaves at t5 = t4 - eps * min(C_weak, C_strong) / C_strong * (t4 - t1)
+#   (capacity rates from cp at the inlets; with the strong side the smaller, Herold et al.'s
+#   eps = (t4 - t5) / (t4 - t1)); duty = m_s (h4 - h5), h5 the solution enthalpy at t5.
 # Properties: equilibrium (mass fraction at p, T; temperature at x, p) from absorptionlib 1.1.0
 # LiBr.saturation_concentration / saturation_temperature (Patek & Klomfar 2006 eq. 1); solution h, rho, cp
 # from Patek & Klomfar eqs. 2-4 with absorptionlib's Params_PK tables and CoolProp IF97 saturated
@@ -42,9 +44,10 @@ def cycle(t_e, t_c, t1, t4, eps, m1=1.0):
     w_p = m1 * (p_h - p_l) / 1000 / rho1
     h2 = h1 + w_p / m1
     c_w, c_s = m1 * cp1, m_s * cp4
-    q_shx = eps * min(c_w, c_s) * (t4 - t1)
+    t5 = t4 - eps * min(c_w, c_s) / c_s * (t4 - t1)
+    h5 = props(x_s, t5)[0]
+    q_shx = m_s * (h4 - h5)
     h3 = h2 + q_shx / m1
-    h5 = h4 - q_shx / m_s
     h7 = CP.PropsSI("H", "P", p_h, "T", t7 + 273.15, W) / 1000
     h8 = CP.PropsSI("H", "T", t_c + 273.15, "Q", 0, W) / 1000
     h10 = CP.PropsSI("H", "T", t_e + 273.15, "Q", 1, W) / 1000

@@ -14,15 +14,23 @@
 //!   temperature, the four heat flows, COP) at six sets of machine-side temperatures, from a
 //!   cycle written independently in Python on absorptionlib 1.1.0 and CoolProp 8.0.0
 //!   (`reference/scripts/make_absorption_cycle.py`); measured agreement below 5e-10 relative.
+//! * `absorption_textbook.csv` – the single-effect cycle worked in Herold, Radermacher &
+//!   Klein, Absorption Chillers and Heat Pumps, 2nd ed. (2016), Table 6.1: state points, heat
+//!   flows and COP at the book's temperatures (the book uses another LiBr formulation; the
+//!   table's header states the tolerances and the measured deviations).
 
 use super::Check;
 use super::table::parse;
+use crate::components::absorption_cycle::CyclePoint;
 use crate::error::{Error, Result};
 use crate::props::libr;
 
 const LIBR: &str = include_str!("../../reference/libr_absorptionlib.csv");
 const MIN_GEN: &str = include_str!("../../reference/libr_min_generator.csv");
+const CYCLE_T: &str = "absorption_cycle_reference.csv";
 const CYCLE: &str = include_str!("../../reference/absorption_cycle_reference.csv");
+const TEXTBOOK_T: &str = "absorption_textbook.csv";
+const TEXTBOOK: &str = include_str!("../../reference/absorption_textbook.csv");
 
 fn libr_checks(out: &mut Vec<Check>) -> Result<()> {
     const T: &str = "libr_absorptionlib.csv";
@@ -214,42 +222,65 @@ fn min_generator_checks(out: &mut Vec<Check>) -> Result<()> {
     Ok(())
 }
 
-/// The internal cycle (`internal_cycle`) against the independent Python cycle.
-fn reference_cycle_checks(out: &mut Vec<Check>) -> Result<()> {
+/// One quantity of an internal cycle, by its column name in the cycle tables.
+fn cycle_quantity(table: &str, p: &CyclePoint, q: &str) -> Result<f64> {
+    Ok(match q {
+        "p_low_kpa" => p.p_low_kpa,
+        "p_high_kpa" => p.p_high_kpa,
+        "x_weak" => p.x_weak,
+        "x_strong" => p.x_strong,
+        "t_strong_shx_c" => p.t_strong_shx_c,
+        // The vapour leaves at the weak solution's equilibrium temperature at the high
+        // pressure.
+        "t7_c" => libr::temperature_c(p.p_high_kpa, p.x_weak)?,
+        "m_ref_kg_s" => p.m_ref_kg_s,
+        "q_evap_kw" => p.q_evap_kw,
+        "q_gen_kw" => p.q_gen_kw,
+        "q_abs_kw" => p.q_abs_kw,
+        "q_cond_kw" => p.q_cond_kw,
+        "q_shx_kw" => p.q_shx_kw,
+        "cop" => p.cop(),
+        other => {
+            return Err(Error::Internal(format!(
+                "reference/{table}: unknown quantity `{other}`"
+            )));
+        }
+    })
+}
+
+/// The internal cycle (`internal_cycle`) against the independent Python cycle (weak flow
+/// 1 kg/s) and against the textbook's worked cycle (its own flow, `m_weak_kg_s`).
+fn internal_cycle_checks(out: &mut Vec<Check>) -> Result<()> {
     use crate::components::absorption_cycle::internal_cycle;
-    const T: &str = "absorption_cycle_reference.csv";
-    for row in parse(T, CYCLE)? {
-        let (t_e, t_c, t1, t4, eps) = (
-            row.f64("t_evap_c")?,
-            row.f64("t_cond_c")?,
-            row.f64("t_abs_out_c")?,
-            row.f64("t_gen_out_c")?,
-            row.f64("sol_hx_effectiveness")?,
-        );
-        let p = internal_cycle(t_e, t_c, t1, t4, 1.0, eps)?;
-        let q = row.str("quantity")?;
-        let v = match q {
-            "x_weak" => p.x_weak,
-            "x_strong" => p.x_strong,
-            // The vapour leaves at the weak solution's equilibrium temperature at the high
-            // pressure.
-            "t7_c" => crate::props::libr::temperature_c(p.p_high_kpa, p.x_weak)?,
-            "q_evap_kw" => p.q_evap_kw,
-            "q_gen_kw" => p.q_gen_kw,
-            "q_abs_kw" => p.q_abs_kw,
-            "q_cond_kw" => p.q_cond_kw,
-            "cop" => p.cop(),
-            other => {
-                return Err(Error::Internal(format!("{T}: unknown quantity {other}")));
-            }
-        };
-        out.push(super::table::check(
-            "absorption",
-            T,
-            format!("cycle {t_e}/{t_c}/{t1}/{t4} °C, SHX ε {eps}, {q}"),
-            v,
-            &row,
-        )?);
+    for (table, text) in [(CYCLE_T, CYCLE), (TEXTBOOK_T, TEXTBOOK)] {
+        for row in parse(table, text)? {
+            let (t_e, t_c, t1, t4, eps) = (
+                row.f64("t_evap_c")?,
+                row.f64("t_cond_c")?,
+                row.f64("t_abs_out_c")?,
+                row.f64("t_gen_out_c")?,
+                row.f64("sol_hx_effectiveness")?,
+            );
+            let m1 = if table == TEXTBOOK_T {
+                row.f64("m_weak_kg_s")?
+            } else {
+                1.0
+            };
+            let p = internal_cycle(t_e, t_c, t1, t4, m1, eps)?;
+            let q = row.str("quantity")?;
+            let label = if table == TEXTBOOK_T {
+                format!("{} ", row.str("case")?)
+            } else {
+                String::new()
+            };
+            out.push(super::table::check(
+                "absorption",
+                table,
+                format!("{label}cycle {t_e}/{t_c}/{t1}/{t4} °C, SHX ε {eps}, {q}"),
+                cycle_quantity(table, &p, q)?,
+                &row,
+            )?);
+        }
     }
     Ok(())
 }
@@ -261,7 +292,7 @@ pub fn checks() -> Result<Vec<Check>> {
     tower_checks(&mut out)?;
     cycle_checks(&mut out)?;
     min_generator_checks(&mut out)?;
-    reference_cycle_checks(&mut out)?;
+    internal_cycle_checks(&mut out)?;
     Ok(out)
 }
 

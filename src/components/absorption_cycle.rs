@@ -336,12 +336,15 @@ fn internal_with(ws: &WaterSide, x_w: f64, x_s: f64, m1: f64, eps_shx: f64) -> R
     let rho1 = libr::density_kg_m3(t1, x_w)?;
     let w_p = m1 * (p_h - p_l) / rho1; // kW
     let h2 = h1 + w_p / m1;
+    // SHX: ε applies to the smaller capacity rate (cp at the inlets). That is the strong side
+    // in practice, where this is Herold et al.'s ε = (t4 − t5)/(t4 − t1); the duty is the
+    // strong stream's enthalpy change down to t5, so every balance uses the same enthalpies.
     let c_w = m1 * libr::cp_kj_kgk(t1, x_w)?;
     let c_s = m_s * libr::cp_kj_kgk(t4, x_s)?;
-    let q_shx = eps_shx * c_w.min(c_s) * (t4 - t1);
+    let t5 = t4 - eps_shx * c_w.min(c_s) / c_s * (t4 - t1);
+    let h5 = libr::enthalpy_kj_kg(t5, x_s)?;
+    let q_shx = m_s * (h4 - h5);
     let h3 = h2 + q_shx / m1;
-    let h5 = h4 - q_shx / m_s;
-    let t5 = t4 - q_shx / c_s;
     let h7 = h_vapour_kj_kg(p_h, t7.max(t_c + 1e-6));
     let (h8, h10) = (ws.h8, ws.h10);
     let q_e = m_r * (h10 - h8);
