@@ -62,11 +62,11 @@ SRC = "single-effect cycle written in Python on absorptionlib 1.1.0 + CoolProp 8
 TOL = dict(x_weak=1e-4, x_strong=1e-4, t7_c=1e-3)
 print("# Single-effect LiBr-water internal cycle, weak-solution flow 1 kg/s; made by")
 print("# reference/scripts/make_absorption_cycle.py (absorptionlib 1.1.0, CoolProp 8.0.0).")
-print("t_evap_c,t_cond_c,t_abs_out_c,t_gen_out_c,sol_hx_effectiveness,quantity,expected,tolerance,source")
+print("case,t_evap_c,t_cond_c,t_abs_out_c,t_gen_out_c,m_weak_kg_s,sol_hx_effectiveness,quantity,expected,tolerance,source")
 for (t_e, t_c, t1, t4, eps) in [(4.0, 38.0, 35.0, 80.0, 0.7), (4.0, 38.0, 35.0, 80.0, 0.5),
                                 (7.0, 40.0, 36.0, 85.0, 0.7), (2.0, 35.0, 32.0, 75.0, 0.8),
                                 (5.0, 42.0, 38.0, 92.0, 0.6), (3.0, 36.0, 33.0, 78.0, 0.7)]:
     r = cycle(t_e, t_c, t1, t4, eps)
     for k, v in r.items():
         tol = TOL.get(k, abs(v) * 1e-5)
-        print(f"{t_e},{t_c},{t1},{t4},{eps},{k},{v:.10g},{tol:.3g},{SRC}")
+        print(f"python,{t_e},{t_c},{t1},{t4},1.0,{eps},{k},{v:.10g},{tol:.3g},{SRC}")

@@ -248,35 +248,29 @@ fn cycle_quantity(table: &str, p: &CyclePoint, q: &str) -> Result<f64> {
     })
 }
 
-/// The internal cycle (`internal_cycle`) against the independent Python cycle (weak flow
-/// 1 kg/s) and against the textbook's worked cycle (its own flow, `m_weak_kg_s`).
+/// The internal cycle (`internal_cycle`) against the independent Python cycle and against
+/// the textbook's worked cycle: both tables have the same columns.
 fn internal_cycle_checks(out: &mut Vec<Check>) -> Result<()> {
     use crate::components::absorption_cycle::internal_cycle;
     for (table, text) in [(CYCLE_T, CYCLE), (TEXTBOOK_T, TEXTBOOK)] {
         for row in parse(table, text)? {
-            let (t_e, t_c, t1, t4, eps) = (
+            let (t_e, t_c, t1, t4, m1, eps) = (
                 row.f64("t_evap_c")?,
                 row.f64("t_cond_c")?,
                 row.f64("t_abs_out_c")?,
                 row.f64("t_gen_out_c")?,
+                row.f64("m_weak_kg_s")?,
                 row.f64("sol_hx_effectiveness")?,
             );
-            let m1 = if table == TEXTBOOK_T {
-                row.f64("m_weak_kg_s")?
-            } else {
-                1.0
-            };
             let p = internal_cycle(t_e, t_c, t1, t4, m1, eps)?;
             let q = row.str("quantity")?;
-            let label = if table == TEXTBOOK_T {
-                format!("{} ", row.str("case")?)
-            } else {
-                String::new()
-            };
             out.push(super::table::check(
                 "absorption",
                 table,
-                format!("{label}cycle {t_e}/{t_c}/{t1}/{t4} °C, SHX ε {eps}, {q}"),
+                format!(
+                    "{} cycle {t_e}/{t_c}/{t1}/{t4} °C, SHX ε {eps}, {q}",
+                    row.str("case")?
+                ),
                 cycle_quantity(table, &p, q)?,
                 &row,
             )?);
