@@ -67,7 +67,7 @@ enum Verb {
         /// The option whose figure is targeted.
         #[arg(long)]
         option: String,
-        /// FIGURE=VALUE, e.g. solar_fraction=0.6.
+        /// FIGURE=VALUE, e.g. solar_share_of_cooling=0.3.
         #[arg(long, conflicts_with = "minimize")]
         target: Option<String>,
         /// FIGURE to minimise (fractions, COPs and yields are maximised).
@@ -103,7 +103,7 @@ enum Verb {
         #[arg(long)]
         option: String,
         /// Annual figure (JSON summary key).
-        #[arg(long, default_value = "solar_fraction")]
+        #[arg(long, default_value = "solar_share_of_cooling")]
         figure: String,
     },
     /// Latin-hypercube uncertainty over the `[[uncertainty.inputs]]`: P10/P50/P90 of each
@@ -114,8 +114,9 @@ enum Verb {
         samples: usize,
         #[arg(long, default_value_t = 1)]
         seed: u64,
-        /// Figure on which options are compared with the reference.
-        #[arg(long, default_value = "electricity_kwh")]
+        /// Figure on which options are compared with the reference (grid electricity:
+        /// an option's own PV counts).
+        #[arg(long, default_value = "grid_kwh")]
         figure: String,
         /// Write every sample's figures to this CSV.
         #[arg(long, value_name = "FILE.csv")]

@@ -131,7 +131,12 @@ fn sweep_runs_a_grid_and_refuses_bad_ranges() {
     let text = std::fs::read_to_string(&out).unwrap();
     // 2 × 2 designs, each the option and the reference.
     assert_eq!(text.lines().count(), 1 + 4 * 2);
-    assert!(text.lines().next().unwrap().contains("solar_fraction"));
+    assert!(
+        text.lines()
+            .next()
+            .unwrap()
+            .contains("solar_share_of_cooling")
+    );
     std::fs::remove_file(&out).unwrap();
     for bad in ["=40:60:0", "=40:60:-5", "=60:40:5", "=40:60"] {
         let (code, err) = run(&[
@@ -162,13 +167,30 @@ fn exploration_bad_input() {
     assert_eq!(code, 2);
     assert!(err.contains("did you mean `options`"), "{err}");
     // A fraction's target outside [0, 1].
-    let (code, err) = run(&["size", s, "--option", OPT, "--target", "solar_fraction=1.4"]);
+    let (code, err) = run(&[
+        "size",
+        s,
+        "--option",
+        OPT,
+        "--target",
+        "thermal_solar_fraction=1.4",
+    ]);
     assert_eq!(code, 2);
     assert!(err.contains("[0, 1]"), "{err}");
     // An unknown figure.
-    let (code, err) = run(&["size", s, "--option", OPT, "--minimize", "solar_fractoin"]);
+    let (code, err) = run(&[
+        "size",
+        s,
+        "--option",
+        OPT,
+        "--minimize",
+        "solar_share_of_cooliing",
+    ]);
     assert_eq!(code, 2);
-    assert!(err.contains("did you mean `solar_fraction`"), "{err}");
+    assert!(
+        err.contains("did you mean `solar_share_of_cooling`"),
+        "{err}"
+    );
     // Zero samples.
     let (code, err) = run(&["uncertainty", s, "--samples", "0"]);
     assert_eq!(code, 2);

@@ -60,9 +60,13 @@ fn g(x: Option<f64>) -> String {
 
 /// `NAME=VALUE` → (NAME, VALUE).
 pub fn parse_target(s: &str) -> Result<(String, f64), Error> {
-    let (k, v) = s
-        .split_once('=')
-        .ok_or_else(|| Error::input("--target", s, "give FIGURE=VALUE, e.g. solar_fraction=0.6"))?;
+    let (k, v) = s.split_once('=').ok_or_else(|| {
+        Error::input(
+            "--target",
+            s,
+            "give FIGURE=VALUE, e.g. solar_share_of_cooling=0.3",
+        )
+    })?;
     let v: f64 = v
         .trim()
         .parse()
@@ -427,8 +431,8 @@ pub fn uncertainty(a: UncertaintyArgs) -> Result<(String, Vec<u8>), Error> {
     let shown = [
         "cooling_kwh",
         "electricity_kwh",
-        "backup_heat_kwh",
-        "solar_fraction",
+        "grid_kwh",
+        "solar_share_of_cooling",
     ];
     let mut figs: Vec<&str> = shown.to_vec();
     if !figs.contains(&a.figure) {

@@ -107,6 +107,14 @@ fn default_t_chw() -> f64 {
     AHRI_T_CHW_C
 }
 
+/// Default chilled-water and condenser-water pump power, W per kW of the stream's heat (common
+/// practice for screening: about 15 W/kW each for a small plant at design flow and head).
+pub const DEFAULT_PUMP_W_PER_KW: f64 = 15.0;
+
+fn default_pump() -> f64 {
+    DEFAULT_PUMP_W_PER_KW
+}
+
 /// An electric chiller as written in a scenario.
 #[derive(Debug, Clone, serde::Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -133,6 +141,18 @@ pub struct ChillerSpec {
     /// Chilled-water supply minus evaporating temperature, K (default 3 K).
     #[serde(default)]
     pub approach_evap_k: Option<f64>,
+    /// The cooling tower of a water-cooled chiller (`[baseline.tower]`; ignored air-cooled),
+    /// sized at the chiller's design heat rejection. Defaults common practice.
+    #[serde(default)]
+    pub tower: crate::components::cooling_tower::TowerSpec,
+    /// Chilled-water pump, W per kW of cooling delivered through chilled water (default 15):
+    /// charged to every option's chilled-water cooling, the reference's included.
+    #[serde(default = "default_pump")]
+    pub pump_chw_w_per_kw: f64,
+    /// Condenser-water pump, W per kW of heat rejected through a cooling tower (default 15):
+    /// charged to every machine that rejects heat through a tower.
+    #[serde(default = "default_pump")]
+    pub pump_cw_w_per_kw: f64,
 }
 
 /// One hour of chiller operation (interval [i, i+1) h).
@@ -171,6 +191,9 @@ impl ChillerSpec {
             t_chw_supply_c: AHRI_T_CHW_C,
             approach_cond_k: None,
             approach_evap_k: None,
+            tower: Default::default(),
+            pump_chw_w_per_kw: DEFAULT_PUMP_W_PER_KW,
+            pump_cw_w_per_kw: DEFAULT_PUMP_W_PER_KW,
         }
     }
 
@@ -226,6 +249,21 @@ impl ChillerSpec {
         if let Some(a) = self.approach_evap_k {
             validate::in_range("approach_evap_k", a, 0.5, 10.0, "evaporator approach, K")?;
         }
+        self.tower.validate().map_err(|e| e.within("", "tower"))?;
+        validate::in_range(
+            "pump_chw_w_per_kw",
+            self.pump_chw_w_per_kw,
+            0.0,
+            100.0,
+            "chilled-water pump power per kW of cooling, W/kW",
+        )?;
+        validate::in_range(
+            "pump_cw_w_per_kw",
+            self.pump_cw_w_per_kw,
+            0.0,
+            100.0,
+            "condenser-water pump power per kW of heat rejected, W/kW",
+        )?;
         Ok(())
     }
 

@@ -15,8 +15,20 @@
 //! effectiveness in closed form. Off-design: constant-speed fan and constant water flow, so
 //! the flows and hence `NTU = h_D A / ṁ_a` stay at design (Merkel's NTU depends only on the
 //! flows); `c_s`, and with it `C_r`, change with the temperatures. The cold-water temperature
-//! is solved by Brent's method. Fan power is `fan_w_per_kw_rejected` × design heat while the
-//! tower rejects heat (constant speed).
+//! is solved by Brent's method ([`Tower::run`]: fan at full speed whenever heat is rejected).
+//!
+//! Fan control ([`Tower::run_held`], the rule every chiller plant here uses): a variable-speed
+//! fan holds the cold water at a set-point (the plant's: wet-bulb + design approach, at least
+//! the chiller's lowest entering water). At air-flow fraction `x = ṁ_a/ṁ_a,design` the tower
+//! characteristic follows Merkel's `KaV/L = C (L/G)^−n` at constant water flow, so the air-side
+//! NTU is `NTU_design · x^(n−1)`, with `n = 0.6` (the usual exponent of a counterflow fill,
+//! 0.4–0.8; from memory, ASHRAE Handbook—HVAC Systems and Equipment, ch. "Cooling Towers",
+//! tower characteristic); fan power follows the fan affinity law, `P = P_design · x³`
+//! (same chapter and the "Fans" chapter; from memory). The speed that just holds the set-point
+//! is found by Brent's method on `x`; when even full speed cannot, the fan runs at full speed
+//! and the water comes back warmer (solved as in `run`). Below a few per cent of speed a real
+//! drive would cycle at its minimum speed instead; the energy there is below 0.1 % of design
+//! fan power and is not modelled.
 //!
 //! Water: evaporation = heat / latent heat of water at the mean water temperature (IF97);
 //! blow-down = evaporation / (cycles − 1); drift = drift fraction × circulating flow;
@@ -121,7 +133,12 @@ pub struct TowerHour {
     pub blowdown_m3: f64,
     /// Make-up water (evaporation + blow-down + drift), m³.
     pub water_m3: f64,
+    /// Fan air-flow fraction of design (1 at full speed, 0 when idle).
+    pub fan_speed: f64,
 }
+
+/// Exponent `n` of the tower characteristic `KaV/L = C (L/G)^−n` (module docs; from memory).
+pub const CHARACTERISTIC_EXPONENT: f64 = 0.6;
 
 /// Counterflow effectiveness, `ε(NTU, C_r)` (Jaber & Webb 1989 eq. for counterflow; `C_r = 1`
 /// limit `NTU/(1 + NTU)`).
@@ -247,10 +264,46 @@ impl TowerSpec {
     }
 }
 
+/// The water side's enthalpy capacity rate and the driving potential of one hour.
+#[derive(Debug, Clone, Copy)]
+struct Potentials {
+    /// `ṁ_w c_pw / c_s`, kg/s.
+    cw: f64,
+    /// `h_s(T_hot) − h_a,in`, kJ/kg.
+    dh: f64,
+}
+
+impl Potentials {
+    /// Heat rejected, kW, at air-flow fraction `x` of design (module docs).
+    fn rejected_kw(&self, t: &Tower, x: f64) -> f64 {
+        if x <= 0.0 {
+            return 0.0;
+        }
+        let ma = t.m_air_kg_s * x;
+        let ntu = t.ntu * x.powf(CHARACTERISTIC_EXPONENT - 1.0);
+        let (cmin, cmax) = (ma.min(self.cw), ma.max(self.cw));
+        effectiveness_counterflow(ntu, cmin / cmax) * cmin * self.dh
+    }
+}
+
 impl Tower {
     /// Heat rejected, kW, with cold water at `t_cold_c` (hot water from the water-side balance
     /// `T_hot = T_cold + Q/(ṁ_w c_pw)`): the residual of the ε-NTU relation.
     fn rejected_kw(&self, t_cold_c: f64, heat_kw: f64, t_wb_c: f64, p_kpa: f64) -> Result<f64> {
+        Ok(self
+            .potentials(t_cold_c, heat_kw, t_wb_c, p_kpa)?
+            .rejected_kw(self, 1.0))
+    }
+
+    /// The enthalpy potentials of the hour with cold water at `t_cold_c` and the water-side
+    /// balance `T_hot = T_cold + Q/(ṁ_w c_pw)`.
+    fn potentials(
+        &self,
+        t_cold_c: f64,
+        heat_kw: f64,
+        t_wb_c: f64,
+        p_kpa: f64,
+    ) -> Result<Potentials> {
         let t_hot = t_cold_c + heat_kw / (self.m_water_kg_s * CP_W);
         let (hs_h, hs_c, h_in) = (
             h_sat(t_hot, p_kpa)?,
@@ -263,9 +316,10 @@ impl Tower {
             // zero range: the derivative of h_s
             (h_sat(t_cold_c + 0.01, p_kpa)? - hs_c) / 0.01
         };
-        let cw = self.m_water_kg_s * CP_W / cs;
-        let (cmin, cmax) = (self.m_air_kg_s.min(cw), self.m_air_kg_s.max(cw));
-        Ok(effectiveness_counterflow(self.ntu, cmin / cmax) * cmin * (hs_h - h_in))
+        Ok(Potentials {
+            cw: self.m_water_kg_s * CP_W / cs,
+            dh: hs_h - h_in,
+        })
     }
 
     /// Cold-water temperature the tower returns while rejecting `heat_kw`, °C.
@@ -331,22 +385,59 @@ impl Tower {
                 evaporated_m3: 0.0,
                 blowdown_m3: 0.0,
                 water_m3: 0.0,
+                fan_speed: 0.0,
             });
         }
+        Ok(self.hour_at(heat_kw, t_cold, 1.0))
+    }
+
+    /// One hour rejecting `heat_kw` with a variable-speed fan holding the cold water at
+    /// `t_set_c` (module docs): the lowest fan speed whose cold water is at or below the
+    /// set-point; full speed (and warmer water, as [`Tower::run`]) when that is not enough.
+    ///
+    /// * `heat_kw` – heat rejected, kW averaged over the hour (≥ 0); `t_wb_c` – wet-bulb, °C;
+    ///   `p_kpa` – barometric pressure; `t_set_c` – cold-water set-point, °C (above the wet-bulb)
+    ///
+    /// Errors as [`Tower::t_cold_c`]. Source: Merkel characteristic and fan affinity law
+    /// (module docs).
+    pub fn run_held(
+        &self,
+        heat_kw: f64,
+        t_wb_c: f64,
+        p_kpa: f64,
+        t_set_c: f64,
+    ) -> Result<TowerHour> {
+        let full = self.run(heat_kw, t_wb_c, p_kpa)?;
+        if heat_kw <= 0.0 || full.t_cold_c >= t_set_c || t_set_c <= t_wb_c {
+            return Ok(full);
+        }
+        // Full speed would over-cool: slow the fan until the cold water sits at the set-point.
+        let pot = self.potentials(t_set_c, heat_kw, t_wb_c, p_kpa)?;
+        let x = crate::num::brent("cooling tower fan speed", 1e-9, 1.0, 1e-9, |x| {
+            pot.rejected_kw(self, x) - heat_kw
+        })?;
+        Ok(self.hour_at(heat_kw, t_set_c, x))
+    }
+
+    /// Fan energy and water of an hour rejecting `heat_kw` with cold water at `t_cold` and the
+    /// fan at air-flow fraction `x`.
+    fn hour_at(&self, heat_kw: f64, t_cold: f64, x: f64) -> TowerHour {
+        let t_hot = t_cold + heat_kw / (self.m_water_kg_s * CP_W);
         let t_mean = 0.5 * (t_cold + t_hot);
         let hfg = seuif97::tx(t_mean, 1.0, seuif97::OH) - seuif97::tx(t_mean, 0.0, seuif97::OH);
         let rho = 1000.0 / (1.0 + 2.07e-4 * (t_mean - 4.0)).max(1.0); // ≈ liquid water
         let evap = heat_kw * 3600.0 / hfg / rho;
         let blow = evap / (self.cycles - 1.0);
         let drift = self.drift_fraction * self.m_water_kg_s * 3600.0 / rho;
-        Ok(TowerHour {
+        TowerHour {
             t_cold_c: t_cold,
             t_hot_c: t_hot,
-            fan_kwh: self.fan_kw,
+            fan_kwh: self.fan_kw * x * x * x,
             evaporated_m3: evap,
             blowdown_m3: blow,
             water_m3: evap + blow + drift,
-        })
+            fan_speed: x,
+        }
     }
 }
 
@@ -373,6 +464,37 @@ mod tests {
         let a = t.t_cold_c(50.0, 26.0, 101.325).unwrap();
         let b = t.t_cold_c(100.0, 20.0, 101.325).unwrap();
         assert!(a < 30.0 && a > 26.0 && b < 30.0 && b > 20.0);
+    }
+
+    /// Variable-speed fan: at design heat and wet-bulb the set-point of 30 °C needs full
+    /// speed; at half the heat the fan slows until the water sits at 30 °C, and a tower whose
+    /// design air flow and NTU are those at that speed (`x ṁ_a`, `NTU x^(n−1)`) run at full
+    /// speed must give 30 °C too (the other code path, Brent on the water temperature).
+    #[test]
+    fn held_set_point_by_fan_speed() {
+        let t = TowerSpec::default().size(100.0).unwrap();
+        let d = t.run_held(100.0, 26.0, 101.325, 30.0).unwrap();
+        assert!(
+            (d.fan_speed - 1.0).abs() < 1e-6 && (d.fan_kwh - 1.0).abs() < 1e-5,
+            "{d:?}"
+        );
+        let h = t.run_held(50.0, 26.0, 101.325, 30.0).unwrap();
+        assert!(h.fan_speed > 0.2 && h.fan_speed < 0.9, "{h:?}");
+        assert!((h.t_cold_c - 30.0).abs() < 1e-12);
+        assert!((h.fan_kwh - t.fan_kw * h.fan_speed.powi(3)).abs() < 1e-12);
+        let slow = Tower {
+            m_air_kg_s: t.m_air_kg_s * h.fan_speed,
+            ntu: t.ntu * h.fan_speed.powf(CHARACTERISTIC_EXPONENT - 1.0),
+            ..t
+        };
+        let t_cold = slow.t_cold_c(50.0, 26.0, 101.325).unwrap();
+        assert!((t_cold - 30.0).abs() < 1e-4, "{t_cold}");
+        // Same water as at full speed (evaporation follows the heat, drift the water flow).
+        let full = t.run(50.0, 26.0, 101.325).unwrap();
+        assert!((h.water_m3 / full.water_m3 - 1.0).abs() < 0.01);
+        // Heat beyond what full speed can hold at the set-point: full speed, warmer water.
+        let hot = t.run_held(120.0, 26.0, 101.325, 30.0).unwrap();
+        assert!(hot.fan_speed == 1.0 && hot.t_cold_c > 30.0);
     }
 
     #[test]

@@ -139,8 +139,9 @@ impl Study {
         let ev = self.evaluate(edits, Some(option))?;
         let o = ev
             .options
-            .first()
-            .ok_or_else(|| Error::Internal("no option evaluated".into()))?;
+            .iter()
+            .find(|o| o.option == option)
+            .ok_or_else(|| Error::Internal(format!("option {option} not evaluated")))?;
         figure(&o.annual, name)
     }
 }

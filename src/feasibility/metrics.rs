@@ -39,7 +39,7 @@ pub fn sizes_of(s: &Scenario, o: &OptionResult) -> Sizes {
         pcm_kg,
         chiller_kw: s.baseline.capacity_kw,
         thermal_chiller_kw: if heat_driven {
-            peak(&|r| r.cooling_kwh - r.backup_cooling_kwh)
+            peak(&|r| r.cooling_solar_kwh + r.cooling_backup_heat_kwh)
         } else {
             0.0
         },

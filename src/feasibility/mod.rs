@@ -1,10 +1,19 @@
-//! From hourly records to monthly and annual figures, defined once and used everywhere.
+//! From hourly records to monthly and annual figures, defined once and used everywhere
+//! (the registry of keys, labels, units and definitions is [`figures`]).
 //!
-//! Solar fraction is the share of the driving heat used that came from the sun:
-//! `SF = Q_solar,used / (Q_solar,used + Q_backup)`, over the route's driving heat and the heat
-//! demand served together (the fraction of the load supplied by solar energy, as Duffie &
-//! Beckman, *Solar Engineering of Thermal Processes*, 4th ed., define the solar fraction of a
-//! thermal system). Seasonal COPs are ratios of sums, never means of hourly ratios.
+//! Key figures (definitions after the key figures the IEA Solar Heating and Cooling
+//! programme uses for monitored solar cooling plants, Tasks 38 and 48 — from memory, not read
+//! here; the solar fraction as Duffie & Beckman, *Solar Engineering of Thermal Processes*, 4th
+//! ed., define it for a thermal system):
+//! * solar share of cooling = (cooling made from solar heat + cooling made on the option's own
+//!   PV) / cooling load;
+//! * thermal solar fraction of the route = solar heat the route used / (solar + backup heat
+//!   the route used); the heat demand's own solar fraction separately;
+//! * thermal COP = cooling the heat-driven machine made / driving heat given to it;
+//! * seasonal electric performance = cooling delivered / all electricity of the option;
+//! * primary energy ratio and fractional primary-energy saving (`energy.rs`).
+//!
+//! Seasonal ratios are ratios of sums over the same hours, never means of hourly ratios.
 
 pub mod economics;
 pub mod energy;
@@ -20,6 +29,12 @@ use serde::Serialize;
 pub struct Totals {
     pub load_kwh: f64,
     pub cooling_kwh: f64,
+    /// Cooling by source (the hourly record's `cooling_*`), kWh.
+    pub cooling_solar_kwh: f64,
+    pub cooling_backup_heat_kwh: f64,
+    pub cooling_evaporative_kwh: f64,
+    pub cooling_electric_kwh: f64,
+    pub cooling_pv_kwh: f64,
     pub unmet_kwh: f64,
     pub solar_heat_kwh: f64,
     pub heat_to_route_kwh: f64,
@@ -28,19 +43,25 @@ pub struct Totals {
     pub heat_demand_kwh: f64,
     pub heat_demand_solar_kwh: f64,
     pub electricity_kwh: f64,
+    /// Electricity by use (the hourly record's `elec_*`; `pump_kwh` is the collector pump), kWh.
+    pub elec_compressor_kwh: f64,
+    pub elec_heat_rejection_kwh: f64,
+    pub elec_pumps_kwh: f64,
+    pub elec_air_handling_kwh: f64,
     pub pump_kwh: f64,
     pub fuel_kwh: f64,
     pub heat_rejected_kwh: f64,
     pub store_loss_kwh: f64,
-    /// Seasonal thermal COP: cooling the heat-driven machine made (less backup chiller) per
-    /// driving heat given to it.
-    pub cop_thermal: Option<f64>,
-    /// Seasonal electric COP: cooling / all electricity.
-    pub cop_electric: Option<f64>,
-    /// Solar fraction of all driving heat used (route + heat demand).
-    pub solar_fraction: Option<f64>,
+    /// Solar share of cooling: (cooling from solar heat + cooling on own PV) / cooling load.
+    pub solar_share_of_cooling: Option<f64>,
+    /// Thermal solar fraction of the route: solar heat used / (solar + backup heat used).
+    pub thermal_solar_fraction: Option<f64>,
     /// Solar fraction of the heat demand alone.
     pub solar_fraction_heat_demand: Option<f64>,
+    /// Seasonal thermal COP: cooling the heat-driven machine made / driving heat given to it.
+    pub cop_thermal: Option<f64>,
+    /// Seasonal electric performance: cooling delivered / all electricity of the option.
+    pub seasonal_electric_performance: Option<f64>,
     /// Heat collected per m² of gross collector area, kWh/m².
     pub collector_yield_kwh_m2: Option<f64>,
     pub stagnation_hours: u32,
@@ -48,10 +69,10 @@ pub struct Totals {
     pub pump_hours: f64,
     /// Largest hourly store balance error relative to the energy stored.
     pub max_balance_error_rel: f64,
+    /// Largest hourly plant first-law residual relative to the hour's largest flow.
+    pub max_plant_balance_rel: f64,
     /// Water used, m³.
     pub water_m3: f64,
-    /// Cooling carried by a backup electric chiller, kWh.
-    pub backup_cooling_kwh: f64,
     /// PV electricity used on site and exported, kWh.
     pub pv_used_kwh: f64,
     pub pv_export_kwh: f64,
@@ -90,6 +111,11 @@ impl Totals {
         for r in records {
             t.load_kwh += r.load_kwh;
             t.cooling_kwh += r.cooling_kwh;
+            t.cooling_solar_kwh += r.cooling_solar_kwh;
+            t.cooling_backup_heat_kwh += r.cooling_backup_heat_kwh;
+            t.cooling_evaporative_kwh += r.cooling_evaporative_kwh;
+            t.cooling_electric_kwh += r.cooling_electric_kwh;
+            t.cooling_pv_kwh += r.cooling_pv_kwh;
             t.unmet_kwh += r.unmet_kwh;
             t.solar_heat_kwh += r.solar_heat_kwh;
             t.heat_to_route_kwh += r.heat_to_route_kwh;
@@ -98,6 +124,10 @@ impl Totals {
             t.heat_demand_kwh += r.heat_demand_kwh;
             t.heat_demand_solar_kwh += r.heat_demand_solar_kwh;
             t.electricity_kwh += r.electricity_kwh;
+            t.elec_compressor_kwh += r.elec_compressor_kwh;
+            t.elec_heat_rejection_kwh += r.elec_heat_rejection_kwh;
+            t.elec_pumps_kwh += r.elec_pumps_kwh;
+            t.elec_air_handling_kwh += r.elec_air_handling_kwh;
             t.pump_kwh += r.pump_kwh;
             t.fuel_kwh += r.fuel_kwh;
             t.heat_rejected_kwh += r.heat_rejected_kwh;
@@ -106,20 +136,21 @@ impl Totals {
             t.unmet_hours += u32::from(r.unmet_kwh > 1e-6);
             t.pump_hours += r.pump_hours;
             t.max_balance_error_rel = t.max_balance_error_rel.max(r.balance_error_rel);
+            t.max_plant_balance_rel = t.max_plant_balance_rel.max(r.plant_balance_rel());
             t.water_m3 += r.water_m3;
-            t.backup_cooling_kwh += r.backup_cooling_kwh;
             t.pv_used_kwh += r.pv_used_kwh;
             t.pv_export_kwh += r.pv_export_kwh;
             t.grid_kwh += r.grid_kwh;
             *t.reason_hours.entry(r.reason.as_str()).or_insert(0) += 1;
         }
-        // Thermal COP of the heat-driven machine: its own cooling (not the backup chiller's)
-        // per driving heat.
-        t.cop_thermal = ratio(t.cooling_kwh - t.backup_cooling_kwh, t.heat_to_route_kwh);
-        t.cop_electric = ratio(t.cooling_kwh, t.electricity_kwh);
-        let solar_used = t.route_solar_kwh + t.heat_demand_solar_kwh;
-        t.solar_fraction = ratio(solar_used, t.heat_to_route_kwh + t.heat_demand_kwh);
+        t.solar_share_of_cooling = ratio(t.cooling_solar_kwh + t.cooling_pv_kwh, t.load_kwh);
+        t.thermal_solar_fraction = ratio(t.route_solar_kwh, t.heat_to_route_kwh);
         t.solar_fraction_heat_demand = ratio(t.heat_demand_solar_kwh, t.heat_demand_kwh);
+        t.cop_thermal = ratio(
+            t.cooling_solar_kwh + t.cooling_backup_heat_kwh,
+            t.heat_to_route_kwh,
+        );
+        t.seasonal_electric_performance = ratio(t.cooling_kwh, t.electricity_kwh);
         t.collector_yield_kwh_m2 = ratio(t.solar_heat_kwh, gross_m2);
         t
     }

@@ -17,7 +17,7 @@ pub use record::HourRecord;
 use crate::components::boiler::Boiler;
 use crate::components::field::Field;
 use crate::components::tank::Stream;
-use crate::routes::{HeatSupplied, HourConditions, Route, RouteHour};
+use crate::routes::{HeatSupplied, HourConditions, Reason, Route, RouteHour};
 use crate::scenario::schema::HeatPriority;
 use crate::sun::sky::PlaneIrradiance;
 use store::{MAX_STREAMS, Store, charge, draw};
@@ -99,9 +99,18 @@ struct Draw {
 /// Plan a draw of `power_w` at supply `t_need_c` returning at `t_return_c` from a store whose
 /// top is at `t_top_c`: when the top is hot enough a mixing valve takes only what is needed;
 /// when it is warmer than the return but short of the need, the full flow passes and the
-/// boiler lifts it; when it is colder than the return, the store is bypassed.
-fn plan_draw(power_w: f64, t_need_c: f64, t_return_c: f64, t_top_c: f64, cp: f64) -> Draw {
-    if power_w <= 0.0 || t_top_c <= t_return_c + 0.1 {
+/// boiler lifts it (`boiler_lifts`) — without a boiler behind the draw, a store short of the
+/// need gives nothing, so heat is never drawn below the temperature the machine is solved at;
+/// when it is colder than the return, the store is bypassed.
+fn plan_draw(
+    power_w: f64,
+    t_need_c: f64,
+    t_return_c: f64,
+    t_top_c: f64,
+    cp: f64,
+    boiler_lifts: bool,
+) -> Draw {
+    if power_w <= 0.0 || t_top_c <= t_return_c + 0.1 || (!boiler_lifts && t_top_c < t_need_c) {
         return Draw {
             flow_kg_s: 0.0,
             t_return_c,
@@ -122,6 +131,8 @@ fn plan_draw(power_w: f64, t_need_c: f64, t_return_c: f64, t_top_c: f64, cp: f64
 pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
     let mut solar = opt.solar.clone();
     let mut pump_on = false;
+    // The heat-driven machine's cut-in control (hysteresis on the store's top).
+    let mut enabled = false;
     let mut out = Vec::with_capacity(y.conditions.len());
     for (i, c) in y.conditions.iter().enumerate() {
         let hd = if opt.serves_heat_demand {
@@ -139,7 +150,21 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             ..HourRecord::default()
         };
         let t_top0 = solar.as_ref().map(|s| s.store.t_top_c());
-        let request = opt.route.heat_request(c, t_top0);
+        // What the route may see of the store: everything for a route without a cut-in
+        // (boiler-backed or heat-free), nothing while a cut-in route is disabled.
+        let t_route = match (opt.route.cut_in_out_c(), t_top0) {
+            (Some((cut_in, cut_out)), Some(t)) => {
+                if t >= cut_in {
+                    enabled = true;
+                } else if t < cut_out {
+                    enabled = false;
+                }
+                enabled.then_some(t)
+            }
+            (Some(_), None) => None,
+            (None, t) => t,
+        };
+        let request = opt.route.heat_request(c, t_route);
         let mut route_solar_j = 0.0;
         let mut demand_solar_j = 0.0;
         if let Some(s) = solar.as_mut() {
@@ -191,6 +216,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                         r.t_return_c,
                         t_top,
                         s.cp_j_kgk,
+                        r.boiler_backup,
                     );
                 }
                 draws[1] = plan_draw(
@@ -199,6 +225,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     hd.t_cold_c,
                     t_top,
                     s.cp_j_kgk,
+                    true,
                 );
                 draws[2] = plan_draw(
                     hd.sh_kwh * 1000.0,
@@ -206,6 +233,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     hd.t_sh_return_c,
                     t_top,
                     s.cp_j_kgk,
+                    true,
                 );
                 if let Some(r) = request {
                     let route_short = t_top < r.t_supply_c;
@@ -228,7 +256,35 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     streams[n] = draw(d.flow_kg_s, d.t_return_c);
                     n += 1;
                 }
-                let r = s.store.step(DT_S, &streams[..n], s.t_room_c, s.cp_j_kgk);
+                // Heat each draw was planned to take this sub-step, J.
+                let planned_j = [request.map_or(0.0, |r| r.heat_kwh), hd.dhw_kwh, hd.sh_kwh]
+                    .map(|kwh| kwh * 1000.0 * DT_S);
+                let before = (draws.iter().any(|d| d.flow_kg_s > 0.0)).then(|| s.store.clone());
+                let mut r = s.store.step(DT_S, &streams[..n], s.t_room_c, s.cp_j_kgk);
+                // A draw planned at the sub-step's starting top temperature takes more than
+                // planned when the top warms during the step (the collector charging it); the
+                // mixing valve would throttle, so the step is taken again from the same state
+                // with that draw's flow scaled to its plan (the first law of the hour then
+                // closes: no heat leaves the store that nobody uses).
+                if let Some(before) = before {
+                    // The heat drawn rises with the flow but not in proportion (the top cools
+                    // as it is drawn): a few rescalings bring each draw to its plan.
+                    for _ in 0..8 {
+                        let mut redo = false;
+                        for (k, want) in planned_j.iter().enumerate() {
+                            let got = -r.q_in_j[1 + k];
+                            if got > want * (1.0 + 1e-7) && got > 0.0 {
+                                streams[1 + k].flow_kg_s *= want / got;
+                                redo = true;
+                            }
+                        }
+                        if !redo {
+                            break;
+                        }
+                        s.store = before.clone();
+                        r = s.store.step(DT_S, &streams[..n], s.t_room_c, s.cp_j_kgk);
+                    }
+                }
                 q_collected_j += r.q_in_j[0];
                 // Draw streams have q_in < 0: heat out of the store.
                 route_solar_j += -r.q_in_j[1];
@@ -239,6 +295,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             let stored1 = s.store.stored_j();
             rec.solar_heat_kwh = q_collected_j / J_PER_KWH;
             rec.store_loss_kwh = q_loss_j / J_PER_KWH;
+            rec.store_delta_kwh = (stored1 - stored0) / J_PER_KWH;
             // Closure from the store's own end states, independent of its reported Δ.
             rec.balance_error_kwh = (q_in_sum_j - q_loss_j - (stored1 - stored0)) / J_PER_KWH;
             rec.balance_error_rel =
@@ -259,32 +316,73 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 },
             }
         });
-        let rh: RouteHour = opt.route.run(c, t_top0, heat);
-        if let Some(h) = heat {
-            rec.heat_to_route_kwh = h.solar_kwh + h.backup_kwh;
-            rec.route_solar_kwh = h.solar_kwh;
-            rec.backup_heat_kwh += h.backup_kwh;
-        }
+        let rh: RouteHour = opt.route.run(c, t_route, heat);
+        let (heat_solar, heat_backup) = heat.map_or((0.0, 0.0), |h| (h.solar_kwh, h.backup_kwh));
+        rec.heat_to_route_kwh = heat_solar + heat_backup;
+        rec.route_solar_kwh = heat_solar;
+        rec.backup_heat_kwh += heat_backup;
         let demand_solar_kwh = (demand_solar_j / J_PER_KWH).max(0.0);
         rec.heat_demand_solar_kwh = demand_solar_kwh.min(hd_all.total_kwh());
         rec.backup_heat_kwh += (hd_all.total_kwh() - demand_solar_kwh).max(0.0);
         rec.fuel_kwh = opt.boiler.fuel_kwh(rec.backup_heat_kwh);
-        rec.cooling_kwh = rh.cooling_kwh;
+        // Cooling by source: the heat-driven machine's cooling splits between solar and backup
+        // heat in proportion to the driving heat each gave; electric cooling splits between
+        // the grid and the option's own PV in proportion to the electricity each gave.
+        let solar_share = if rec.heat_to_route_kwh > 0.0 {
+            heat_solar / rec.heat_to_route_kwh
+        } else {
+            0.0
+        };
+        rec.cooling_solar_kwh = rh.cooling.heat_driven_kwh * solar_share;
+        rec.cooling_backup_heat_kwh = rh.cooling.heat_driven_kwh - rec.cooling_solar_kwh;
+        rec.cooling_evaporative_kwh = rh.cooling.evaporative_kwh;
+        let route_elec = rh.electricity_kwh();
+        let pv_share = if route_elec > 0.0 {
+            (rh.pv_used_kwh / route_elec).clamp(0.0, 1.0)
+        } else {
+            0.0
+        };
+        rec.cooling_pv_kwh = rh.cooling.electric_kwh * pv_share;
+        rec.cooling_electric_kwh = rh.cooling.electric_kwh - rec.cooling_pv_kwh;
+        rec.cooling_kwh = rh.cooling_kwh();
         rec.unmet_kwh = rh.unmet_kwh;
-        rec.route_electricity_kwh = rh.electricity_kwh;
-        rec.electricity_kwh = rh.electricity_kwh + rec.pump_kwh;
+        rec.elec_compressor_kwh = rh.electricity.compressor_kwh;
+        rec.elec_heat_rejection_kwh = rh.electricity.heat_rejection_kwh;
+        rec.elec_pumps_kwh = rh.electricity.pumps_kwh;
+        rec.elec_air_handling_kwh = rh.electricity.air_handling_kwh;
+        rec.electricity_kwh = route_elec + rec.pump_kwh;
         rec.heat_rejected_kwh = rh.heat_rejected_kwh;
-        rec.cop_thermal = rh.cop_thermal;
-        rec.cop_electric = rh.cop_electric;
-        rec.reason = rh.reason;
+        let heat_driven = rh.cooling.heat_driven_kwh;
+        rec.cop_thermal = (rec.heat_to_route_kwh > 0.0 && heat_driven > 0.0)
+            .then(|| heat_driven / rec.heat_to_route_kwh);
+        rec.cop_electric =
+            (rec.electricity_kwh > 0.0).then(|| rec.cooling_kwh / rec.electricity_kwh);
+        // A machine off for want of store heat: "no sun" when no solar heat came in this hour
+        // (or the option has no field), "store below cut-in" while the field is collecting.
+        rec.reason = match rh.reason {
+            Reason::StoreBelowCutIn if solar.is_none() || rec.solar_heat_kwh <= 0.0 => {
+                Reason::NoSun
+            }
+            r => r,
+        };
         rec.water_m3 = rh.water_m3;
-        rec.backup_cooling_kwh = rh.backup_cooling_kwh;
         rec.t_drive_c = rh.t_drive_c;
         rec.t_sink_c = rh.t_sink_c;
+        rec.t_chw_c = rh.t_chw_c;
         rec.pv_used_kwh = rh.pv_used_kwh;
         rec.pv_export_kwh = rh.pv_export_kwh;
         rec.grid_kwh = rec.electricity_kwh - rh.pv_used_kwh;
         rec.detail = rh.detail;
+        // The plant's first law over the hour (record docs).
+        let boiler_loss = rec.fuel_kwh - rec.backup_heat_kwh;
+        rec.plant_balance_kwh =
+            rec.solar_heat_kwh + rec.fuel_kwh + rec.electricity_kwh + rec.cooling_kwh
+                - rec.heat_rejected_kwh
+                - rec.store_loss_kwh
+                - rec.store_delta_kwh
+                - hd_all.total_kwh()
+                - boiler_loss
+                - rec.pump_kwh;
         out.push(rec);
     }
     out

@@ -5,7 +5,7 @@ use crate::feasibility::Evaluation;
 use crate::weather::calendar;
 
 /// Column names, in order. README documents each.
-pub const COLUMNS: [&str; 38] = [
+pub const COLUMNS: [&str; 37] = [
     "option",
     "route",
     "hour_of_year",
@@ -36,7 +36,6 @@ pub const COLUMNS: [&str; 38] = [
     "balance_error_kwh",
     "stagnation",
     "reason",
-    "backup_cooling_kwh",
     "water_m3",
     "t_drive_c",
     "t_sink_c",
@@ -104,7 +103,6 @@ pub fn render(ev: &Evaluation) -> Result<Vec<u8>> {
                     format!("{:.3e}", r.balance_error_kwh),
                     u8::from(r.stagnation).to_string(),
                     r.reason.as_str().to_string(),
-                    num(r.backup_cooling_kwh),
                     num(r.water_m3),
                     opt(r.t_drive_c),
                     opt(r.t_sink_c),

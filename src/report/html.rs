@@ -295,10 +295,10 @@ fn chart_monthly_cooling(ev: &Evaluation) -> String {
         y_axis(&mut s, &ax, x0, x1, y0, y1, "MWh");
         let bw = (x1 - x0) / 12.0;
         for (m, t) in o.monthly.iter().enumerate() {
-            let own = (t.cooling_kwh - t.backup_cooling_kwh).max(0.0) / 1000.0;
+            let own = (t.cooling_solar_kwh + t.cooling_backup_heat_kwh) / 1000.0;
             let parts = [
                 (own, PALETTE[0]),
-                (t.backup_cooling_kwh.max(0.0) / 1000.0, PALETTE[1]),
+                (t.cooling_electric_kwh.max(0.0) / 1000.0, PALETTE[1]),
                 (t.unmet_kwh.max(0.0) / 1000.0, PALETTE[5]),
             ];
             let x = x0 + m as f64 * bw + 0.15 * bw;
@@ -362,7 +362,7 @@ fn chart_monthly_solar_fraction(ev: &Evaluation) -> String {
         let mut path = String::new();
         let mut pen_up = true;
         for (m, t) in o.monthly.iter().enumerate() {
-            match t.solar_fraction {
+            match t.solar_share_of_cooling {
                 Some(f) => {
                     let (x, y) = (x0 + (m as f64 + 0.5) * dx, ax.map(100.0 * f, y1, y0));
                     let _ = write!(path, "{}{x:.1},{y:.1} ", if pen_up { "M" } else { "L" });
@@ -451,7 +451,7 @@ fn chart_heat_map(s: &Scenario, ev: &Evaluation) -> (String, String) {
         if store {
             r.t_store_c
         } else {
-            Some(r.cooling_kwh - r.backup_cooling_kwh)
+            Some(r.cooling_solar_kwh + r.cooling_backup_heat_kwh)
         }
     };
     let vals: Vec<Option<f64>> = o.hours.iter().map(value).collect();

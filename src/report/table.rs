@@ -56,13 +56,13 @@ pub fn feasibility(ev: &Evaluation) -> String {
         "route",
         "load MWh",
         "cooling MWh",
-        "by backup chiller MWh",
+        "electric cooling MWh",
         "unmet MWh",
         "unmet h",
         "electricity MWh",
         "own PV used MWh",
         "thermal COP",
-        "electric COP",
+        "SEP",
         "water m³",
     ]);
     for o in &ev.options {
@@ -72,13 +72,13 @@ pub fn feasibility(ev: &Evaluation) -> String {
             o.route.to_string(),
             mwh(a.load_kwh),
             mwh(a.cooling_kwh),
-            mwh(a.backup_cooling_kwh),
+            mwh(a.cooling_electric_kwh),
             mwh(a.unmet_kwh),
             a.unmet_hours.to_string(),
             mwh(a.electricity_kwh),
             mwh(a.pv_used_kwh),
             ratio(a.cop_thermal, 2),
-            ratio(a.cop_electric, 2),
+            ratio(a.seasonal_electric_performance, 2),
             format!("{:.0}", a.water_m3),
         ]);
     }
@@ -92,7 +92,7 @@ pub fn feasibility(ev: &Evaluation) -> String {
         "heat to route MWh",
         "heat demand MWh",
         "backup heat MWh",
-        "solar fraction %",
+        "route SF %",
         "SF heat demand %",
         "stagnation h",
     ]);
@@ -111,7 +111,7 @@ pub fn feasibility(ev: &Evaluation) -> String {
             mwh(a.heat_to_route_kwh),
             mwh(a.heat_demand_kwh),
             mwh(a.backup_heat_kwh),
-            pct(a.solar_fraction),
+            pct(a.thermal_solar_fraction),
             pct(a.solar_fraction_heat_demand),
             a.stagnation_hours.to_string(),
         ]);
@@ -369,7 +369,7 @@ pub fn monthly(option: &str, months: &[Totals]) -> String {
         "solar heat MWh",
         "heat demand MWh",
         "backup heat MWh",
-        "solar fraction %",
+        "route SF %",
         "stagnation h",
     ]);
     for (i, m) in months.iter().enumerate() {
@@ -381,7 +381,7 @@ pub fn monthly(option: &str, months: &[Totals]) -> String {
             mwh(m.solar_heat_kwh),
             mwh(m.heat_demand_kwh),
             mwh(m.backup_heat_kwh),
-            pct(m.solar_fraction),
+            pct(m.solar_share_of_cooling),
             m.stagnation_hours.to_string(),
         ]);
     }

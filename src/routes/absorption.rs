@@ -10,20 +10,28 @@
 //!   `t_supply_max_c` with the capacity it has there (`GivenSupply`); the rest goes to the
 //!   backup electric chiller or stays unmet;
 //! * backup `boiler`: the route asks for the required supply whatever the store's temperature
-//!   (the boiler lifts it); backup `electric-chiller`: it asks at the store's top temperature
-//!   when that is below the requirement and at least `t_supply_min_c`, runs at the capacity
-//!   that supply gives, and the electric chiller carries the rest; below `t_supply_min_c` it
-//!   asks for nothing and the electric chiller carries the whole load;
+//!   (the boiler lifts it); backup `electric-chiller`: the machine runs on store heat alone,
+//!   enabled by the plant between its cut-in and cut-out temperatures (`t_cut_in_c`,
+//!   `t_cut_out_c`, defaults 75 / 65 °C: the trade's 65–75 °C range for small single-effect
+//!   machines, common practice); it asks at the store's top temperature when that is below
+//!   the requirement, runs at the capacity that supply gives, and the backup chiller — the
+//!   `[baseline]` plant of [`super::conventional`], run exactly as the reference runs it —
+//!   carries the rest;
 //! * the heat supplied may fall short of the request: cooling then scales with it at the
 //!   solved thermal COP;
-//! * parasitics: solution pump (from the cycle), hot/cooling/chilled-water pumps in W per kW of
-//!   the stream's heat (defaults common practice), tower fan.
+//! * heat rejection: the machine's own wet tower, its variable-speed fan holding the cooling
+//!   water at wet-bulb + design approach (at least 18 °C), as the baseline's tower does;
+//! * parasitics: solution pump (from the cycle), hot-water pump in W per kW of driving heat
+//!   (default common practice), and — at the `[baseline]` plant's rates, like for like — the
+//!   condenser-water pump on the heat rejected and the chilled-water pump on the cooling.
 //!
 //! No warm start is kept between hours (`&self` and no interior mutability): every solve starts
 //! from the design point. Cost per hour: about 2 × (3–5 Newton iterations × 5 residual
 //! evaluations) ≈ 40 residual evaluations of ~14 property calls each, plus two tower Brent
 //! solves (~12 psychrometric evaluations each).
 
+use super::conventional::{Conventional, MIN_CONDENSER_WATER_C};
+use super::{Cooling, Electricity};
 use super::{HeatRequest, HeatSupplied, HourConditions, Memo, Reason, Route, RouteHour};
 use crate::components::absorption_cycle::{CyclePoint, Machine, Mode, Rating};
 use crate::components::absorption_fit::{self, Datasheet, FitReport};
@@ -73,14 +81,11 @@ fn d_backup() -> Backup {
 fn d_pump_hw() -> f64 {
     10.0
 }
-fn d_pump_cw() -> f64 {
-    15.0
+fn d_cut_in() -> f64 {
+    75.0
 }
-fn d_pump_chw() -> f64 {
-    15.0
-}
-fn d_tmin() -> f64 {
-    70.0
+fn d_cut_out() -> f64 {
+    65.0
 }
 fn d_tmax() -> f64 {
     95.0
@@ -118,16 +123,18 @@ pub struct AbsorptionSpec {
     /// `boiler` (default) or `electric-chiller`.
     #[serde(default = "d_backup")]
     pub backup: Backup,
-    /// Pump power per kW of the stream's heat, W/kW (defaults 10 hot, 15 cooling, 15 chilled).
+    /// Hot-water pump power per kW of driving heat, W/kW (default 10). The condenser- and
+    /// chilled-water pumps are the `[baseline]` plant's (same rates for every option).
     #[serde(default = "d_pump_hw")]
     pub pump_hw_w_per_kw: f64,
-    #[serde(default = "d_pump_cw")]
-    pub pump_cw_w_per_kw: f64,
-    #[serde(default = "d_pump_chw")]
-    pub pump_chw_w_per_kw: f64,
-    /// Lowest supply worth running on without the boiler, °C (default 70).
-    #[serde(default = "d_tmin")]
-    pub t_supply_min_c: f64,
+    /// Electric backup: the plant starts the machine when the store's top reaches this, °C
+    /// (default 75).
+    #[serde(default = "d_cut_in")]
+    pub t_cut_in_c: f64,
+    /// Electric backup: the plant stops the machine when the store's top falls below this, °C
+    /// (default 65; at most `t_cut_in_c`).
+    #[serde(default = "d_cut_out")]
+    pub t_cut_out_c: f64,
     /// Highest generator supply, °C (default 95).
     #[serde(default = "d_tmax")]
     pub t_supply_max_c: f64,
@@ -149,19 +156,26 @@ impl AbsorptionSpec {
     pub fn validate(&self) -> Result<()> {
         self.rating().validate()?;
         self.tower.validate().map_err(|e| e.within("", "tower"))?;
-        for (k, v) in [
-            ("pump_hw_w_per_kw", self.pump_hw_w_per_kw),
-            ("pump_cw_w_per_kw", self.pump_cw_w_per_kw),
-            ("pump_chw_w_per_kw", self.pump_chw_w_per_kw),
-        ] {
-            validate::in_range(k, v, 0.0, 100.0, "pump power per kW of heat, W/kW")?;
-        }
         validate::in_range(
-            "t_supply_min_c",
-            self.t_supply_min_c,
+            "pump_hw_w_per_kw",
+            self.pump_hw_w_per_kw,
+            0.0,
+            100.0,
+            "hot-water pump power per kW of driving heat, W/kW",
+        )?;
+        validate::in_range(
+            "t_cut_in_c",
+            self.t_cut_in_c,
             40.0,
-            self.t_hw_in_c,
-            "lowest useful supply, °C (at most the rating supply)",
+            self.t_supply_max_c,
+            "store temperature that starts the machine, °C (at most t_supply_max_c)",
+        )?;
+        validate::in_range(
+            "t_cut_out_c",
+            self.t_cut_out_c,
+            40.0,
+            self.t_cut_in_c,
+            "store temperature that stops the machine, °C (at most t_cut_in_c)",
         )?;
         validate::in_range(
             "t_supply_max_c",
@@ -210,8 +224,8 @@ pub enum AbsorptionReason {
     NoLoad,
     /// Load above what the machine makes at the hour's supply/cooling water.
     CapacityLimit,
-    /// Store below `t_supply_min_c` (electric backup): the machine stays off.
-    SupplyTooCold,
+    /// No store heat may be drawn (electric backup, store below the cut-in band): machine off.
+    StoreBelowCutIn,
     /// Capacity limited to keep the strong solution's crystallisation margin (or, when even
     /// the lowest supply is too close, machine off).
     CrystallisationMargin,
@@ -225,7 +239,7 @@ impl AbsorptionReason {
             AbsorptionReason::Ok => "ok",
             AbsorptionReason::NoLoad => "no-load",
             AbsorptionReason::CapacityLimit => "capacity-limit",
-            AbsorptionReason::SupplyTooCold => "supply-too-cold",
+            AbsorptionReason::StoreBelowCutIn => "store-below-cut-in",
             AbsorptionReason::CrystallisationMargin => "crystallisation-margin",
             AbsorptionReason::NoSolution => "no-solution",
         }
@@ -246,13 +260,12 @@ pub struct AbsorptionHour {
     /// Cooling the machine makes with the full request, kWh.
     pub cooling_kwh: f64,
     pub cop_thermal: f64,
-    /// Cooling per electricity of pumps and fan, with the heat wanted.
-    pub cop_electric: f64,
-    pub electricity_kwh: f64,
-    /// Tower heat rejected, kWh.
+    /// Solution pump electricity with the heat wanted, kWh.
+    pub solution_pump_kwh: f64,
+    /// Tower heat rejected with the heat wanted, kWh.
     pub heat_rejected_kwh: f64,
-    pub tower_water_m3: f64,
-    pub cryst_margin_k: f64,
+    /// Crystallisation margin of the strong solution, K (`None` when the machine is off).
+    pub cryst_margin_k: Option<f64>,
     pub reason: AbsorptionReason,
 }
 
@@ -262,9 +275,11 @@ pub struct Absorption {
     pub spec: AbsorptionSpec,
     pub machine: Machine,
     pub tower: Tower,
-    pub baseline: ChillerSpec,
-    /// Tower approach of the baseline chiller's water, K.
-    pub tower_approach_k: f64,
+    /// The backup chiller: the `[baseline]` plant.
+    pub backup_chiller: Conventional,
+    /// Condenser- and chilled-water pump rates of the `[baseline]` plant, W/kW.
+    pub pump_cw_w_per_kw: f64,
+    pub pump_chw_w_per_kw: f64,
     /// The last solved hour and cycle point: `run` repeats `heat_request`'s solve for the same
     /// hour and store temperature (served from here), and each solve starts from the last
     /// cycle point (warm start).
@@ -310,13 +325,13 @@ pub fn build(
     let tower = spec
         .tower
         .size(machine.design.q_abs_kw + machine.design.q_cond_kw)?;
-    let tower_approach_k = spec.tower.design_approach_k;
     Ok(Absorption {
         spec,
         machine,
         tower,
-        baseline: baseline.clone(),
-        tower_approach_k,
+        backup_chiller: Conventional::new(baseline.clone())?,
+        pump_cw_w_per_kw: baseline.pump_cw_w_per_kw,
+        pump_chw_w_per_kw: baseline.pump_chw_w_per_kw,
         memo: Memo::default(),
     })
 }
@@ -330,11 +345,9 @@ impl Absorption {
             t_return_c: 0.0,
             cooling_kwh: 0.0,
             cop_thermal: 0.0,
-            cop_electric: 0.0,
-            electricity_kwh: 0.0,
+            solution_pump_kwh: 0.0,
             heat_rejected_kwh: 0.0,
-            tower_water_m3: 0.0,
-            cryst_margin_k: f64::INFINITY,
+            cryst_margin_k: None,
             reason,
         }
     }
@@ -406,20 +419,22 @@ impl Absorption {
         }
         let s = &self.spec;
         let t_avail = match (s.backup, t_store_top_c) {
-            (Backup::Boiler, _) | (Backup::ElectricChiller, None) => s.t_supply_max_c,
+            (Backup::Boiler, _) => s.t_supply_max_c,
+            (Backup::ElectricChiller, None) => {
+                return (self.off(c, AbsorptionReason::StoreBelowCutIn), None);
+            }
             (Backup::ElectricChiller, Some(t)) => {
-                if t < s.t_supply_min_c {
-                    return (self.off(c, AbsorptionReason::SupplyTooCold), None);
-                }
-                t.min(s.t_supply_max_c)
+                (t - super::SUPPLY_MARGIN_K).min(s.t_supply_max_c)
             }
         };
         let cap_load = load.min(1.3 * s.capacity_kw);
         let mut reject = cap_load * (1.0 + 1.0 / self.machine.design.cop());
         let mut p = None;
         for _ in 0..2 {
+            // The variable-speed fan holds the set-point unless full speed cannot
+            // (`Tower::run_held`): the cold water is the warmer of the two.
             let t_cw = match self.tower.t_cold_c(reject, c.t_wb_c, c.p_kpa) {
-                Ok(t) => t.max(crate::routes::electric::MIN_CONDENSER_WATER_C),
+                Ok(t) => t.max(self.t_set_c(c)),
                 Err(_) => return (self.off(c, AbsorptionReason::NoSolution), None),
             };
             match self.solve_at(c, cap_load, t_avail, t_cw, p.as_ref().or(warm)) {
@@ -444,14 +459,7 @@ impl Absorption {
                 None => return (self.off(c, AbsorptionReason::CrystallisationMargin), None),
             }
         }
-        let tw = self.tower.run(reject, c.t_wb_c, c.p_kpa).ok();
         let cooling = p.q_evap_kw.min(load);
-        let elec = p.w_pump_kw
-            + (s.pump_hw_w_per_kw * p.q_gen_kw
-                + s.pump_cw_w_per_kw * reject
-                + s.pump_chw_w_per_kw * p.q_evap_kw)
-                / 1000.0
-            + tw.map_or(0.0, |t| t.fan_kwh);
         let reason = if limited_by_cryst {
             AbsorptionReason::CrystallisationMargin
         } else if cooling < load - 1e-6 {
@@ -466,11 +474,9 @@ impl Absorption {
             t_return_c: p.t_hw_out_c,
             cooling_kwh: cooling,
             cop_thermal: p.cop(),
-            cop_electric: cooling / elec,
-            electricity_kwh: elec,
+            solution_pump_kwh: p.w_pump_kw,
             heat_rejected_kwh: reject,
-            tower_water_m3: tw.map_or(0.0, |t| t.water_m3),
-            cryst_margin_k: p.cryst_margin_k,
+            cryst_margin_k: Some(p.cryst_margin_k),
             reason,
         };
         (hour, Some(p))
@@ -519,20 +525,21 @@ impl Absorption {
         at(t).ok().filter(|q| q.q_evap_kw > 0.0)
     }
 
-    fn backup_electric(&self, rest_kw: f64, t_cw: f64) -> (f64, f64) {
-        if rest_kw <= 0.0 {
-            return (0.0, 0.0);
-        }
-        let h = self
-            .baseline
-            .run_hour(rest_kw, t_cw, self.baseline.t_chw_supply_c);
-        (h.cooling_kwh, h.electricity_kwh)
+    /// The machine's cooling-water set-point: wet-bulb + its tower's design approach, at
+    /// least [`MIN_CONDENSER_WATER_C`] (the rule of the baseline's tower).
+    fn t_set_c(&self, c: &HourConditions) -> f64 {
+        (c.t_wb_c + self.spec.tower.design_approach_k).max(MIN_CONDENSER_WATER_C)
     }
 }
 
 impl Route for Absorption {
     fn kind(&self) -> &'static str {
         "absorption"
+    }
+
+    fn cut_in_out_c(&self) -> Option<(f64, f64)> {
+        (self.spec.backup == Backup::ElectricChiller)
+            .then_some((self.spec.t_cut_in_c, self.spec.t_cut_out_c))
     }
 
     fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest> {
@@ -552,20 +559,11 @@ impl Route for Absorption {
         heat: Option<HeatSupplied>,
     ) -> RouteHour {
         let load = c.load.cooling_kw();
-        if load <= 0.0 {
-            return RouteHour {
-                cooling_kwh: 0.0,
-                unmet_kwh: 0.0,
-                electricity_kwh: 0.0,
-                heat_rejected_kwh: 0.0,
-                cop_thermal: None,
-                cop_electric: None,
-                reason: Reason::NoLoad,
-                ..RouteHour::default()
-            };
+        if !(load > 0.0) {
+            return RouteHour::no_load();
         }
         // The same solve as the request (same store temperature); the heat actually supplied
-        // scales it.
+        // scales it (the machine at the solved COP on less heat).
         let h = self.solve_hour(c, t_store_top_c);
         let supplied = heat.map_or(0.0, |q| q.solar_kwh + q.backup_kwh);
         let frac = if h.heat_kwh > 0.0 {
@@ -574,28 +572,52 @@ impl Route for Absorption {
             0.0
         };
         let cooling = h.cooling_kwh * frac;
-        let mut elec = h.electricity_kwh * frac;
-        let mut rejected = h.heat_rejected_kwh * frac;
-        let mut delivered = cooling;
+        let heat_used = h.heat_kwh * frac;
+        let rejected = h.heat_rejected_kwh * frac;
+        let tw = (rejected > 0.0)
+            .then(|| {
+                self.tower
+                    .run_held(rejected, c.t_wb_c, c.p_kpa, self.t_set_c(c))
+                    .ok()
+            })
+            .flatten();
+        let fan = tw.map_or(0.0, |t| t.fan_kwh);
+        // Water pumps besides the solution pump (whose work is inside the cycle's rejection).
+        let water_pumps = (self.spec.pump_hw_w_per_kw * heat_used
+            + self.pump_cw_w_per_kw * rejected
+            + self.pump_chw_w_per_kw * cooling)
+            / 1000.0;
+        let mut out = RouteHour {
+            cooling: Cooling {
+                heat_driven_kwh: cooling,
+                ..Cooling::default()
+            },
+            electricity: Electricity {
+                compressor_kwh: 0.0,
+                heat_rejection_kwh: fan,
+                pumps_kwh: h.solution_pump_kwh * frac + water_pumps,
+                air_handling_kwh: 0.0,
+            },
+            heat_rejected_kwh: rejected + fan + water_pumps,
+            water_m3: tw.map_or(0.0, |t| t.water_m3),
+            t_drive_c: (cooling > 0.0).then_some(h.t_gen_in_c),
+            t_sink_c: Some(h.t_cw_in_c),
+            t_chw_c: (cooling > 0.0).then_some(self.spec.t_chw_out_c),
+            detail: [
+                ("t_return_c", h.t_return_c),
+                ("cryst_margin_k", h.cryst_margin_k.unwrap_or(0.0)),
+                ("", 0.0),
+                ("", 0.0),
+            ],
+            ..RouteHour::default()
+        };
         let rest = load - cooling;
         if self.spec.backup == Backup::ElectricChiller && rest > 1e-9 {
-            let t_cw = (c.t_wb_c + self.tower_approach_k)
-                .max(crate::routes::electric::MIN_CONDENSER_WATER_C);
-            let (q, e) = self.backup_electric(rest, t_cw);
-            delivered += q;
-            elec += e;
-            rejected += q + e;
+            out.add_backup(&self.backup_chiller.serve(c, rest));
         }
-        let unmet = (load - delivered).max(0.0);
-        // Tower water for all heat rejected this hour (machine and backup chiller share it).
-        let water_m3 = if rejected > 0.0 {
-            self.tower
-                .run(rejected, c.t_wb_c, c.p_kpa)
-                .map_or(h.tower_water_m3 * frac, |t| t.water_m3)
-        } else {
-            0.0
-        };
-        let reason = match h.reason {
+        let unmet = (load - out.cooling_kwh()).max(0.0);
+        out.unmet_kwh = unmet;
+        out.reason = match h.reason {
             AbsorptionReason::Ok | AbsorptionReason::NoLoad if unmet > 1e-6 => {
                 Reason::CapacityLimit
             }
@@ -606,30 +628,11 @@ impl Route for Absorption {
             }
             AbsorptionReason::Ok | AbsorptionReason::NoLoad => Reason::Ok,
             AbsorptionReason::CapacityLimit => Reason::CapacityLimit,
-            AbsorptionReason::SupplyTooCold => Reason::SupplyTooCold,
+            AbsorptionReason::StoreBelowCutIn => Reason::StoreBelowCutIn,
             AbsorptionReason::CrystallisationMargin => Reason::CrystallisationMargin,
             AbsorptionReason::NoSolution => Reason::NoSolution,
         };
-        RouteHour {
-            cooling_kwh: delivered,
-            unmet_kwh: unmet,
-            electricity_kwh: elec,
-            heat_rejected_kwh: rejected,
-            cop_thermal: (supplied > 0.0 && cooling > 0.0).then(|| cooling / supplied),
-            cop_electric: (elec > 0.0).then(|| delivered / elec),
-            reason,
-            water_m3,
-            backup_cooling_kwh: delivered - cooling,
-            t_drive_c: (h.t_gen_in_c > 0.0).then_some(h.t_gen_in_c),
-            t_sink_c: Some(h.t_cw_in_c),
-            detail: [
-                ("t_return_c", h.t_return_c),
-                ("cryst_margin_k", h.cryst_margin_k),
-                ("", 0.0),
-                ("", 0.0),
-            ],
-            ..RouteHour::default()
-        }
+        out
     }
 }
 
@@ -680,7 +683,8 @@ mod tests {
                 backup_kwh: 0.0,
             }),
         );
-        assert!((out.cooling_kwh - 20.0).abs() < 1e-6 && out.unmet_kwh < 1e-6);
+        assert!((out.cooling_kwh() - 20.0).abs() < 1e-6 && out.unmet_kwh < 1e-6);
+        assert_eq!(out.cooling.heat_driven_kwh, out.cooling_kwh());
         // Half the heat: half the cooling (electric-free boiler backup leaves the rest unmet).
         let half = r.run(
             &c,
@@ -690,7 +694,7 @@ mod tests {
                 backup_kwh: 0.0,
             }),
         );
-        assert!((half.cooling_kwh - 10.0).abs() < 1e-6);
+        assert!((half.cooling_kwh() - 10.0).abs() < 1e-6);
     }
 
     #[test]
@@ -699,9 +703,18 @@ mod tests {
         s.backup = Backup::ElectricChiller;
         let r = build(s, &ChillerSpec::typical(Condenser::WaterCooled, 35.0), None).unwrap();
         let c = hour(30.0, 24.0);
-        assert!(r.heat_request(&c, Some(60.0)).is_none());
+        assert_eq!(r.cut_in_out_c(), Some((75.0, 65.0)));
+        // Below the cut-in band the plant passes no store temperature: machine off, and the
+        // hour is exactly the baseline plant's.
+        assert!(r.heat_request(&c, None).is_none());
         let out = r.run(&c, None, None);
-        assert!((out.cooling_kwh - 30.0).abs() < 1e-6 && out.electricity_kwh > 0.0);
+        assert_eq!(out.reason, Reason::StoreBelowCutIn);
+        let base = r.backup_chiller.serve(&c, 30.0);
+        assert!(
+            (out.cooling.electric_kwh - 30.0).abs() < 1e-9 && out.cooling.heat_driven_kwh == 0.0
+        );
+        assert_eq!(out.electricity_kwh(), base.electricity_kwh());
+        assert_eq!(out.water_m3, base.water_m3);
     }
 
     /// Crystallisation guard. The over-loaded machine runs where its strong solution is
@@ -721,11 +734,12 @@ mod tests {
         let h0 = free.solve_hour(&c, Some(95.0));
         assert_eq!(h0.reason, AbsorptionReason::CapacityLimit, "{h0:?}");
         let mut guarded = build(s.clone(), &bc, None).unwrap();
-        guarded.spec.cryst_margin_min_k = h0.cryst_margin_k + 1.0;
+        let m0 = h0.cryst_margin_k.unwrap();
+        guarded.spec.cryst_margin_min_k = m0 + 1.0;
         let min = guarded.spec.cryst_margin_min_k;
         let h1 = guarded.solve_hour(&c, Some(95.0));
         assert_eq!(h1.reason, AbsorptionReason::CrystallisationMargin, "{h1:?}");
-        assert!((h1.cryst_margin_k - min).abs() < 0.05, "{h1:?}");
+        assert!((h1.cryst_margin_k.unwrap() - min).abs() < 0.05, "{h1:?}");
         assert!(h1.t_gen_in_c < h0.t_gen_in_c - 0.5, "{h1:?}");
         assert!(h1.cooling_kwh < h0.cooling_kwh, "{h1:?}");
         let req = guarded.heat_request(&c, Some(95.0)).unwrap();
@@ -738,18 +752,18 @@ mod tests {
             }),
         );
         assert_eq!(out.reason, Reason::CrystallisationMargin);
-        assert!((out.cooling_kwh - 60.0).abs() < 1e-6, "{out:?}");
-        assert!((out.backup_cooling_kwh - (60.0 - h1.cooling_kwh)).abs() < 1e-6);
+        assert!((out.cooling_kwh() - 60.0).abs() < 1e-6, "{out:?}");
+        assert!((out.cooling.electric_kwh - (60.0 - h1.cooling_kwh)).abs() < 1e-6);
         // A margin no supply reaches: the machine stays off, the backup carries the hour.
         let mut off = build(s, &bc, None).unwrap();
-        off.spec.cryst_margin_min_k = h0.cryst_margin_k + 5.0;
+        off.spec.cryst_margin_min_k = m0 + 5.0;
         let h2 = off.solve_hour(&c, Some(95.0));
         assert_eq!(h2.reason, AbsorptionReason::CrystallisationMargin);
         assert_eq!(h2.heat_kwh, 0.0);
         let out = off.run(&c, Some(95.0), None);
         // (the baseline chiller backing it up is rated 35 kW: the rest is unmet)
-        assert!((out.backup_cooling_kwh - 35.0).abs() < 1e-6, "{out:?}");
-        assert!((out.cooling_kwh - out.backup_cooling_kwh).abs() < 1e-9);
+        assert!((out.cooling.electric_kwh - 35.0).abs() < 1e-6, "{out:?}");
+        assert!((out.cooling_kwh() - out.cooling.electric_kwh).abs() < 1e-9);
         assert!((out.unmet_kwh - 25.0).abs() < 1e-6);
     }
 

@@ -43,8 +43,10 @@
 //! regeneration temperature is capped at what that heat can reach (Brent on the coil heat),
 //! and below `t_regen_min_c` the wheel stops.
 
-use super::electric::Electric;
-use super::{HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour};
+use super::conventional::{Conventional, ConventionalHour};
+use super::{
+    Cooling, Electricity, HeatRequest, HeatSupplied, HourConditions, Reason, Route, RouteHour,
+};
 use crate::components::chiller_electric::ChillerSpec;
 use crate::components::desiccant_wheel::{Air, DesiccantWheel, T_PROCESS_VALID_C};
 use crate::components::evap_cooler::{EvapCooler, water_enthalpy_kj_kg};
@@ -120,9 +122,6 @@ fn d_water_dt() -> f64 {
 fn d_w_room() -> f64 {
     0.0105
 }
-fn d_tower() -> f64 {
-    4.0
-}
 
 /// `[options.NAME.desiccant]`: the desiccant evaporative cooling unit. Defaults are typical of
 /// the class (common practice), not product data.
@@ -182,12 +181,10 @@ pub struct DesiccantSpec {
     /// scenario layer sets it from the building's humidity set-point.
     #[serde(default = "d_w_room")]
     pub w_room_kg_kg: f64,
-    /// `backup-chiller` (default) or `report`.
+    /// `backup-chiller` (default: the `[baseline]` plant, run as the reference runs it) or
+    /// `report`.
     #[serde(default)]
     pub unmet: Unmet,
-    /// Cooling-tower approach of the backup chiller when water-cooled, K (default 4).
-    #[serde(default = "d_tower")]
-    pub tower_approach_k: f64,
 }
 
 impl DesiccantSpec {
@@ -212,7 +209,6 @@ impl DesiccantSpec {
             coil_water_dt_k: d_water_dt(),
             w_room_kg_kg: d_w_room(),
             unmet: Unmet::BackupChiller,
-            tower_approach_k: d_tower(),
         }
     }
 
@@ -307,13 +303,6 @@ impl DesiccantSpec {
             0.03,
             "room humidity ratio at the set-point, kg/kg",
         )?;
-        validate::in_range(
-            "tower_approach_k",
-            self.tower_approach_k,
-            1.0,
-            15.0,
-            "backup cooling-tower approach, K",
-        )?;
         Ok(())
     }
 }
@@ -365,6 +354,8 @@ pub struct DesiccantHour {
     pub latent_kwh: f64,
     /// Cooling by the backup chiller's post-cooling coil, kWh.
     pub backup_cooling_kwh: f64,
+    /// The backup chiller plant's hour (zero without one).
+    pub backup: ConventionalHour,
     /// Load met by neither, kWh.
     pub unmet_kwh: f64,
     /// Regeneration air temperature, °C (`None`: wheel stopped).
@@ -378,10 +369,6 @@ pub struct DesiccantHour {
     pub t_water_return_c: f64,
     /// Electricity of fans, wheel drives and pumps, kWh.
     pub unit_electricity_kwh: f64,
-    /// Electricity of the backup chiller, kWh.
-    pub backup_electricity_kwh: f64,
-    /// Heat rejected by the backup chiller, kWh.
-    pub backup_rejected_kwh: f64,
     /// Water evaporated by both evaporative coolers, kg.
     pub water_kg: f64,
     /// Supply evaporative cooler effectiveness used.
@@ -429,7 +416,7 @@ pub struct Desiccant {
     pub m_supply_kg_s: f64,
     pub m_regen_kg_s: f64,
     /// Backup chiller (`None` for `unmet = "report"`).
-    pub backup: Option<Electric>,
+    pub backup: Option<Conventional>,
 }
 
 /// Build the route from its spec; `baseline` is the scenario's electric chiller, used as the
@@ -452,11 +439,7 @@ pub fn build(spec: &DesiccantSpec, baseline: &ChillerSpec) -> Result<Desiccant> 
         m_supply_kg_s: m_supply,
         m_regen_kg_s: m_supply * spec.regen_flow_ratio,
         backup: match spec.unmet {
-            Unmet::BackupChiller => Some(Electric {
-                chiller: baseline.clone(),
-                tower_approach_k: spec.tower_approach_k,
-                tower: None,
-            }),
+            Unmet::BackupChiller => Some(Conventional::new(baseline.clone())?),
             Unmet::Report => None,
         },
     })
@@ -837,21 +820,12 @@ impl Desiccant {
             reason = DesiccantReason::SensibleLimit;
         }
         let short = q_s_b + q_l_b - (sens + lat).max(0.0);
-        let (backup_cool, backup_el, backup_rej, unmet) = match (&self.backup, short > 1e-12) {
+        let (backup, unmet) = match (&self.backup, short > 1e-12) {
             (Some(b), true) => {
-                let h = b.chiller.run_hour(
-                    short,
-                    b.t_condenser_in_c(c, short),
-                    b.chiller.t_chw_supply_c,
-                );
-                (
-                    h.cooling_kwh,
-                    h.electricity_kwh,
-                    h.heat_rejected_kwh,
-                    h.unmet_kwh,
-                )
+                let h = b.serve(c, short);
+                (h, h.unmet_kwh)
             }
-            _ => (0.0, 0.0, 0.0, short.max(0.0)),
+            _ => (ConventionalHour::default(), short.max(0.0)),
         };
         let v_s = self.v_supply_m3_s();
         let v_r = self.v_regen_m3_s();
@@ -898,7 +872,8 @@ impl Desiccant {
             w_supply_kg_kg: s.w_kg_kg,
             sensible_kwh: sens,
             latent_kwh: lat,
-            backup_cooling_kwh: backup_cool,
+            backup_cooling_kwh: backup.cooling_kwh,
+            backup,
             unmet_kwh: unmet,
             t_regen_c: wheel.map(|(t, _)| t),
             bypass_fraction: wheel.map_or(1.0, |(_, b)| b),
@@ -906,8 +881,6 @@ impl Desiccant {
             t_water_supply_c: t_ws,
             t_water_return_c: t_wr,
             unit_electricity_kwh: unit_w / 1000.0,
-            backup_electricity_kwh: backup_el,
-            backup_rejected_kwh: backup_rej,
             water_kg: (op.water_supply_kg_s + op.water_return_kg_s) * 3600.0,
             eps_evap_supply_used: op.eps_dec,
             exhaust_heat_kwh: m_r * (op.exhaust.h_kj_kg() - x.s5.h_kj_kg()),
@@ -926,6 +899,7 @@ impl Desiccant {
             sensible_kwh: 0.0,
             latent_kwh: 0.0,
             backup_cooling_kwh: 0.0,
+            backup: ConventionalHour::default(),
             unmet_kwh: 0.0,
             t_regen_c: None,
             bypass_fraction: 1.0,
@@ -933,8 +907,6 @@ impl Desiccant {
             t_water_supply_c: f64::NAN,
             t_water_return_c: f64::NAN,
             unit_electricity_kwh: 0.0,
-            backup_electricity_kwh: 0.0,
-            backup_rejected_kwh: 0.0,
             water_kg: 0.0,
             eps_evap_supply_used: 0.0,
             exhaust_heat_kwh: 0.0,
@@ -945,35 +917,15 @@ impl Desiccant {
         }
     }
 
-    /// The whole load handed to the backup (or unmet) — used when the unit's solve fails.
-    fn fallback(&self, c: &HourConditions) -> RouteHour {
+    /// The whole load handed to the backup (or unmet) with `reason`: the unit's solve
+    /// failed, or it may not draw store heat.
+    fn fallback(&self, c: &HourConditions, reason: Reason) -> RouteHour {
         let load = c.load.cooling_kw().max(0.0);
         match &self.backup {
-            Some(b) => {
-                let h =
-                    b.chiller
-                        .run_hour(load, b.t_condenser_in_c(c, load), b.chiller.t_chw_supply_c);
-                RouteHour {
-                    cooling_kwh: h.cooling_kwh,
-                    unmet_kwh: h.unmet_kwh,
-                    electricity_kwh: h.electricity_kwh,
-                    heat_rejected_kwh: h.heat_rejected_kwh,
-                    cop_thermal: None,
-                    cop_electric: (h.electricity_kwh > 0.0)
-                        .then(|| h.cooling_kwh / h.electricity_kwh),
-                    reason: Reason::NoSolution,
-                    backup_cooling_kwh: h.cooling_kwh,
-                    ..RouteHour::default()
-                }
-            }
+            Some(b) => RouteHour::from_conventional(&b.serve(c, load), reason),
             None => RouteHour {
-                cooling_kwh: 0.0,
                 unmet_kwh: load,
-                electricity_kwh: 0.0,
-                heat_rejected_kwh: 0.0,
-                cop_thermal: None,
-                cop_electric: None,
-                reason: Reason::NoSolution,
+                reason,
                 ..RouteHour::default()
             },
         }
@@ -985,9 +937,22 @@ impl Route for Desiccant {
         "desiccant"
     }
 
+    /// With a backup chiller the wheel regenerates on store heat alone: the plant enables it
+    /// from `t_regen_min_c` + 5 K down to `t_regen_min_c` (below that no regeneration is
+    /// possible at all).
+    fn cut_in_out_c(&self) -> Option<(f64, f64)> {
+        self.backup
+            .as_ref()
+            .map(|_| (self.spec.t_regen_min_c + 5.0, self.spec.t_regen_min_c))
+    }
+
     /// Regeneration heat at the temperature the control wants (module docs); `None` when
-    /// the hour needs none (no load, or the wheel is stopped) or the solve fails.
-    fn heat_request(&self, c: &HourConditions, _t_store_top_c: Option<f64>) -> Option<HeatRequest> {
+    /// the hour needs none (no load, or the wheel is stopped), the solve fails, or the unit
+    /// may not draw store heat (electric backup, store below its cut-in band).
+    fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest> {
+        if self.backup.is_some() && t_store_top_c.is_none() {
+            return None;
+        }
         let h = self.solve_hour(c, None).ok()?;
         (h.regen_heat_kwh > 0.0).then_some(HeatRequest {
             heat_kwh: h.regen_heat_kwh,
@@ -1002,35 +967,42 @@ impl Route for Desiccant {
     fn run(
         &self,
         c: &HourConditions,
-        _t_store_top_c: Option<f64>,
+        t_store_top_c: Option<f64>,
         heat: Option<HeatSupplied>,
     ) -> RouteHour {
         let heat = Some(heat.unwrap_or_default());
+        let supplied = heat.map_or(0.0, |q| q.solar_kwh.max(0.0) + q.backup_kwh.max(0.0));
         let h = match self.solve_hour(c, heat) {
             Ok(h) => h,
-            Err(_) => return self.fallback(c),
+            Err(_) => return self.fallback(c, Reason::NoSolution),
         };
         if h.reason == DesiccantReason::NoLoad {
-            return RouteHour {
-                cooling_kwh: 0.0,
-                unmet_kwh: 0.0,
-                electricity_kwh: 0.0,
-                heat_rejected_kwh: 0.0,
-                cop_thermal: None,
-                cop_electric: None,
-                reason: Reason::NoLoad,
-                ..RouteHour::default()
-            };
+            return RouteHour::no_load();
         }
-        let cooling = h.unit_cooling_kwh() + h.backup_cooling_kwh;
-        let el = h.unit_electricity_kwh + h.backup_electricity_kwh;
-        RouteHour {
-            cooling_kwh: cooling,
+        let unit = h.unit_cooling_kwh();
+        // The unit's cooling is heat-driven while its wheel is regenerated; with the wheel
+        // stopped it is evaporative cooling alone, which needs no heat.
+        let (heat_driven, evaporative) = if h.regen_heat_kwh > 0.0 {
+            (unit, 0.0)
+        } else {
+            (0.0, unit)
+        };
+        let mut out = RouteHour {
+            cooling: Cooling {
+                heat_driven_kwh: heat_driven,
+                evaporative_kwh: evaporative,
+                electric_kwh: 0.0,
+            },
             unmet_kwh: h.unmet_kwh,
-            electricity_kwh: el,
-            heat_rejected_kwh: h.exhaust_heat_kwh.max(0.0) + h.backup_rejected_kwh,
-            cop_thermal: h.cop_thermal(),
-            cop_electric: (el > 0.0).then(|| cooling / el),
+            electricity: Electricity {
+                air_handling_kwh: h.unit_electricity_kwh,
+                ..Electricity::default()
+            },
+            // The unit's own air-side balance is checked inside the route
+            // (`energy_balance_rel`); towards the plant's first law its rejection is the
+            // driving heat it was given (all of it leaves with the exhaust air, used by the
+            // wheel or not), the cooling it is credited with and its electricity.
+            heat_rejected_kwh: supplied + unit + h.unit_electricity_kwh,
             reason: match h.reason {
                 DesiccantReason::Ok if h.unmet_kwh > 1e-9 => Reason::CapacityLimit,
                 DesiccantReason::Ok => Reason::Ok,
@@ -1038,11 +1010,13 @@ impl Route for Desiccant {
                 DesiccantReason::EvaporativeOnly => Reason::EvaporativeOnly,
                 DesiccantReason::WheelOutOfRange => Reason::WheelOutOfRange,
                 DesiccantReason::LatentLimit => Reason::LatentLimit,
+                DesiccantReason::HeatShort if self.backup.is_some() && t_store_top_c.is_none() => {
+                    Reason::StoreBelowCutIn
+                }
                 DesiccantReason::HeatShort => Reason::HeatShort,
                 DesiccantReason::SensibleLimit => Reason::SensibleLimit,
             },
             water_m3: h.water_kg / 1000.0,
-            backup_cooling_kwh: h.backup_cooling_kwh,
             t_drive_c: h.t_regen_c,
             t_sink_c: Some(c.t_db_c),
             detail: [
@@ -1052,7 +1026,9 @@ impl Route for Desiccant {
                 ("latent_kwh", h.latent_kwh),
             ],
             ..RouteHour::default()
-        }
+        };
+        out.add_backup(&h.backup);
+        out
     }
 }
 
@@ -1126,15 +1102,16 @@ mod tests {
         assert_eq!(h.reason, DesiccantReason::LatentLimit, "{h:?}");
         assert_eq!(h.t_regen_c, Some(75.0));
         assert!(h.backup_cooling_kwh > 0.0 && h.unmet_kwh < 1e-9);
+        // A store at 80 °C (the plant passes its top while the unit is enabled).
         let rh = u.run(
             &c,
-            None,
-            u.heat_request(&c, None).map(|r| HeatSupplied {
+            Some(80.0),
+            u.heat_request(&c, Some(80.0)).map(|r| HeatSupplied {
                 solar_kwh: r.heat_kwh,
                 backup_kwh: 0.0,
             }),
         );
-        assert!((rh.cooling_kwh - 120.0).abs() < 1e-9 && rh.reason == Reason::LatentLimit);
+        assert!((rh.cooling_kwh() - 120.0).abs() < 1e-9 && rh.reason == Reason::LatentLimit);
     }
 
     /// Outdoor air drier than the supply target: wheel stopped, no heat asked, evaporative
@@ -1169,8 +1146,9 @@ mod tests {
         assert_eq!(half.reason, DesiccantReason::HeatShort);
         assert!(half.regen_heat_kwh <= 0.5 * full.regen_heat_kwh * (1.0 + 1e-6));
         assert!(half.w_supply_kg_kg > full.w_supply_kg_kg);
+        // No heat at all: nothing is credited to driving heat.
         let none = u.run(&c, None, None);
-        assert!(none.cop_thermal.is_none());
+        assert_eq!(none.cooling.heat_driven_kwh, 0.0);
     }
 
     /// Cold dry hour with cooling load (dew point below 0 °C, wet-bulb below 0 °C): wheel

@@ -11,12 +11,19 @@
 //! loop, storage, backup and bookkeeping stay as they are.
 
 pub mod absorption;
+pub mod conventional;
 pub mod desiccant;
 pub mod electric;
 pub mod pv_electric;
 pub mod rankine_vc;
 
 use crate::load::LoadHour;
+
+/// Control margin between the store's top and the supply a machine running on store heat
+/// alone is solved at, K: its mixing valve holds the supply while the top drifts down over
+/// the hour, and the plant draws only while the top is at or above that supply (common
+/// practice: a valve needs a few kelvin of headroom).
+pub const SUPPLY_MARGIN_K: f64 = 2.0;
 
 /// What a route sees of the hour.
 #[derive(Debug, Clone, Copy)]
@@ -70,8 +77,13 @@ pub enum Reason {
     NoLoad,
     /// Load above what the machine can deliver at this hour's conditions.
     CapacityLimit,
-    /// Absorption: store below the lowest workable supply; the backup chiller carried the hour.
-    SupplyTooCold,
+    /// No solar heat to drive the machine: the option has no collector field, or the field
+    /// collected nothing this hour and the store is below the machine's cut-in. The backup
+    /// (chiller, motor) carried the hour.
+    NoSun,
+    /// The field is collecting but the store's top is still below the machine's cut-in (or
+    /// fell below its cut-out): machine off, the backup carried the hour.
+    StoreBelowCutIn,
     /// Absorption: generator supply lowered (capacity limited) to keep the strong solution's
     /// crystallisation margin; the backup carried the rest.
     CrystallisationMargin,
@@ -88,10 +100,9 @@ pub enum Reason {
     HeatShort,
     /// Desiccant: supply air not cold enough with the coolers at design.
     SensibleLimit,
-    /// Rankine: no heat or supply too cold, the motor drove the compressor alone.
+    /// Rankine: the engine cannot run at this hour's supply and sink (no operating point);
+    /// the backup chiller carried the hour.
     EngineOff,
-    /// Rankine: engine and motor shared the shaft.
-    MotorAssist,
 }
 
 impl Reason {
@@ -101,7 +112,8 @@ impl Reason {
             Reason::Ok => "ok",
             Reason::NoLoad => "no-load",
             Reason::CapacityLimit => "capacity-limit",
-            Reason::SupplyTooCold => "supply-too-cold",
+            Reason::NoSun => "no-sun",
+            Reason::StoreBelowCutIn => "store-below-cut-in",
             Reason::CrystallisationMargin => "crystallisation-margin",
             Reason::NoSolution => "no-solution",
             Reason::EvaporativeOnly => "evaporative-only",
@@ -110,35 +122,75 @@ impl Reason {
             Reason::HeatShort => "heat-short",
             Reason::SensibleLimit => "sensible-limit",
             Reason::EngineOff => "engine-off",
-            Reason::MotorAssist => "motor-assist",
         }
+    }
+}
+
+/// Cooling delivered in an hour, by who made it, kWh. Each kWh of cooling is in exactly one
+/// field; the plant splits `heat_driven_kwh` between solar and backup heat.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub struct Cooling {
+    /// By the heat-driven machine from the driving heat it was given: absorption chiller,
+    /// desiccant unit while its wheel is regenerated, the engine-driven share of a Rankine
+    /// chiller (shaft from heat × mechanical efficiency × chiller COP).
+    pub heat_driven_kwh: f64,
+    /// By evaporative cooling alone (desiccant unit with its wheel stopped): no driving heat,
+    /// no compressor — a saving that needs no sun.
+    pub evaporative_kwh: f64,
+    /// By an electric compressor: the conventional chiller (reference or backup) or a motor.
+    pub electric_kwh: f64,
+}
+
+impl Cooling {
+    /// All cooling delivered, kWh.
+    pub fn total_kwh(&self) -> f64 {
+        self.heat_driven_kwh + self.evaporative_kwh + self.electric_kwh
+    }
+}
+
+/// Electricity used in an hour, by use, kWh. Each kWh is in exactly one field.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub struct Electricity {
+    /// Compressors of electric chillers (and a Rankine chiller's motor).
+    pub compressor_kwh: f64,
+    /// Heat rejection: cooling-tower and dry-cooler fans.
+    pub heat_rejection_kwh: f64,
+    /// Pumps: chilled, condenser and hot water, solution pump, collector loop.
+    pub pumps_kwh: f64,
+    /// Air handling of a desiccant unit: its fans, wheel drives and evaporative-cooler pumps.
+    pub air_handling_kwh: f64,
+}
+
+impl Electricity {
+    /// All electricity, kWh.
+    pub fn total_kwh(&self) -> f64 {
+        self.compressor_kwh + self.heat_rejection_kwh + self.pumps_kwh + self.air_handling_kwh
     }
 }
 
 /// What a route did in the hour.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct RouteHour {
-    /// Cooling delivered at the building's terminals, kWh.
-    pub cooling_kwh: f64,
+    /// Cooling delivered at the building's terminals, by who made it.
+    pub cooling: Cooling,
     /// Cooling load not met, kWh.
     pub unmet_kwh: f64,
-    /// Electricity used by the route (compressors, fans, pumps), kWh.
-    pub electricity_kwh: f64,
-    /// Heat rejected to ambient, kWh.
+    /// Electricity used by the route, by use.
+    pub electricity: Electricity,
+    /// Heat rejected to ambient, kWh: by the machines' condensers, absorbers and exhausts,
+    /// and every kWh of the route's electricity (fans and pumps end as heat in the air and
+    /// water they move). With the driving heat used and the cooling it closes the route's
+    /// first law: `heat + cooling + electricity = heat rejected`.
     pub heat_rejected_kwh: f64,
-    /// Cooling per unit of driving heat; `None` for routes not driven by heat, or no heat used.
-    pub cop_thermal: Option<f64>,
-    /// Cooling per unit of electricity; `None` when no electricity was used.
-    pub cop_electric: Option<f64>,
     pub reason: Reason,
     /// Water used (cooling tower make-up, evaporative coolers), m³.
     pub water_m3: f64,
-    /// Of the cooling, what a backup electric chiller delivered, kWh.
-    pub backup_cooling_kwh: f64,
     /// Driving temperature the machine ran at (generator, regeneration or engine supply), °C.
     pub t_drive_c: Option<f64>,
     /// Heat-rejection sink the machine saw (cooling water or air entering), °C.
     pub t_sink_c: Option<f64>,
+    /// Chilled-water temperature the heat-driven machine made, °C (for the second-law check).
+    pub t_chw_c: Option<f64>,
     /// Electricity from the option's own PV array used this hour, kWh (pv-electric).
     pub pv_used_kwh: f64,
     /// PV electricity exported, kWh.
@@ -147,20 +199,63 @@ pub struct RouteHour {
     pub detail: [(&'static str, f64); 4],
 }
 
+impl RouteHour {
+    /// All cooling delivered, kWh.
+    pub fn cooling_kwh(&self) -> f64 {
+        self.cooling.total_kwh()
+    }
+    /// All electricity, kWh.
+    pub fn electricity_kwh(&self) -> f64 {
+        self.electricity.total_kwh()
+    }
+    /// An idle hour with no cooling load.
+    pub fn no_load() -> RouteHour {
+        RouteHour::default()
+    }
+    /// The conventional plant's hour as electric cooling (reference, or backup alone).
+    pub fn from_conventional(h: &conventional::ConventionalHour, reason: Reason) -> RouteHour {
+        RouteHour {
+            cooling: Cooling {
+                electric_kwh: h.cooling_kwh,
+                ..Cooling::default()
+            },
+            unmet_kwh: h.unmet_kwh,
+            electricity: Electricity {
+                compressor_kwh: h.compressor_kwh,
+                heat_rejection_kwh: h.fan_kwh,
+                pumps_kwh: h.pumps_kwh,
+                air_handling_kwh: 0.0,
+            },
+            heat_rejected_kwh: h.heat_rejected_kwh + h.fan_kwh + h.pumps_kwh,
+            reason,
+            water_m3: h.water_m3,
+            t_sink_c: Some(h.t_condenser_in_c),
+            ..RouteHour::default()
+        }
+    }
+    /// Add the conventional plant's hour (a backup chiller carrying part of the load).
+    pub fn add_backup(&mut self, h: &conventional::ConventionalHour) {
+        self.cooling.electric_kwh += h.cooling_kwh;
+        self.electricity.compressor_kwh += h.compressor_kwh;
+        self.electricity.heat_rejection_kwh += h.fan_kwh;
+        self.electricity.pumps_kwh += h.pumps_kwh;
+        self.heat_rejected_kwh += h.heat_rejected_kwh + h.fan_kwh + h.pumps_kwh;
+        self.water_m3 += h.water_m3;
+    }
+}
+
 impl Default for RouteHour {
     fn default() -> Self {
         RouteHour {
-            cooling_kwh: 0.0,
+            cooling: Cooling::default(),
             unmet_kwh: 0.0,
-            electricity_kwh: 0.0,
+            electricity: Electricity::default(),
             heat_rejected_kwh: 0.0,
-            cop_thermal: None,
-            cop_electric: None,
             reason: Reason::NoLoad,
             water_m3: 0.0,
-            backup_cooling_kwh: 0.0,
             t_drive_c: None,
             t_sink_c: None,
+            t_chw_c: None,
             pv_used_kwh: 0.0,
             pv_export_kwh: 0.0,
             detail: [("", 0.0); 4],
@@ -198,8 +293,20 @@ impl<T: Default + Copy> Memo<T> {
 pub trait Route: Send + Sync {
     /// Route name as written in the scenario (`electric`, ...).
     fn kind(&self) -> &'static str;
-    /// Heat wanted from the store this hour (see module docs). `t_store_top_c` is `None` for
-    /// an option without a store.
+    /// The machine's store cut-in and cut-out temperatures, °C (`cut_out ≤ cut_in`), for a
+    /// route that runs on store heat alone (electric backup). The plant loop enables the
+    /// machine when the store's top reaches the cut-in and disables it when the top falls
+    /// below the cut-out; while disabled it passes `t_store_top_c = None`. `None` (the
+    /// default) for routes that need no heat or whose boiler lifts the store's water.
+    fn cut_in_out_c(&self) -> Option<(f64, f64)> {
+        None
+    }
+    /// Heat wanted from the store this hour (see module docs). `t_store_top_c` is `None` when
+    /// the machine may not draw store heat: the option has no store, or the store is below the
+    /// machine's cut-in band ([`Route::cut_in_out_c`]). A route whose backup is the boiler
+    /// may still ask (the boiler gives it all); a route with an electric backup asks for
+    /// nothing and reports [`Reason::StoreBelowCutIn`] (the plant refines it to
+    /// [`Reason::NoSun`] where no solar heat came in).
     fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest>;
     /// Run the hour with the heat supplied (`None` when the route asked for none). The store
     /// temperature is the one `heat_request` saw, so a route can re-solve the same operating

@@ -30,7 +30,7 @@ impl Route for PvElectric {
     fn run(&self, c: &HourConditions, t: Option<f64>, heat: Option<HeatSupplied>) -> RouteHour {
         let mut h = self.chiller.run(c, t, heat);
         let pv = self.pv_ac_kwh.get(c.hour).copied().unwrap_or(0.0).max(0.0);
-        let used = pv.min(h.electricity_kwh);
+        let used = pv.min(h.electricity_kwh());
         h.pv_used_kwh = used;
         h.pv_export_kwh = pv - used;
         h
@@ -63,15 +63,14 @@ mod tests {
     /// takes.
     #[test]
     fn pv_is_used_then_exported() {
-        let chiller =
-            Electric::new(ChillerSpec::typical(Condenser::AirCooled, 100.0), 4.0).unwrap();
+        let chiller = Electric::new(ChillerSpec::typical(Condenser::AirCooled, 100.0)).unwrap();
         let r = PvElectric {
             chiller,
             pv_ac_kwh: vec![0.0, 30.0, 5.0],
         };
         let h = r.run(&hour(1, 50.0), None, None);
         assert!((h.pv_used_kwh + h.pv_export_kwh - 30.0).abs() < 1e-12);
-        assert!(h.pv_used_kwh <= h.electricity_kwh + 1e-12);
+        assert!(h.pv_used_kwh <= h.electricity_kwh() + 1e-12);
         let h = r.run(&hour(2, 50.0), None, None);
         assert!((h.pv_used_kwh - 5.0).abs() < 1e-12 && h.pv_export_kwh == 0.0);
         let h = r.run(&hour(0, 0.0), None, None);

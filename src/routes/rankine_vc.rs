@@ -1,32 +1,44 @@
-//! Route `rankine-vc`: a solar Rankine engine (organic working fluid or steam) on the same shaft as
-//! the compressor of a vapour-compression chiller, with an electric motor carrying what the engine
-//! cannot.
+//! Route `rankine-vc`: a solar Rankine engine (organic working fluid or steam) driving the
+//! compressor of a vapour-compression chiller; the `[baseline]` chiller plant carries what the
+//! engine cannot.
 //!
-//! Shaft balance each hour: `W_engine + W_motor = W_compressor / η_mech`. The engine is limited
-//! by the driving heat supplied (`W_engine = η_th · heat`, at most its design shaft power); the
-//! motor's electricity carries the rest (`W_motor / η_motor`). Engine shaft beyond what the
-//! compressor needs is curtailed (`surplus = "curtail"`) or drives a generator
+//! Shaft balance each hour: the engine's shaft `W_engine = η_th · heat` (at most its design
+//! shaft power) drives the compressor through the coupling, so the engine-driven cooling is
+//! `Q_sun = W_engine · η_mech · COP_vc`, at most the chiller's capacity and the load — the
+//! cooling the heat made, and the only numerator of the thermal COP. The rest of the load is
+//! electric cooling, charged as the `[baseline]` plant of [`super::conventional`] charges the
+//! reference for the same cooling (like for like): a motor on the same shaft is a compressor
+//! on grid electricity, and an auditor compares it with the chiller it replaces, so its
+//! electricity, tower fan, pumps and water are those of the baseline plant. Engine shaft
+//! beyond the compressor's need is curtailed (`surplus = "curtail"`) or drives a generator
 //! (`surplus = "generate"`, electricity `η_gen` × surplus shaft, reported, not netted).
 //!
-//! Heat sink: [`RankineVc::t_sink_c`] — for now a documented rule standing in for the shared
-//! cooling tower: wet sink (cooling tower water) at wet-bulb + `sink_approach_k`, dry sink
-//! (dry cooler) at dry-bulb + `sink_approach_k`, held at or above `t_sink_min_c`. Both cycles
-//! condense against it; the hour reports the heat each rejects so water use can be computed.
+//! Heat sink: [`RankineVc::t_sink_c`] — wet sink: the route's own cooling tower, its
+//! variable-speed fan holding wet-bulb + `sink_approach_k` (at least `t_sink_min_c`) as the
+//! baseline's tower holds its set-point (fan by the affinity law, make-up water, condenser-water
+//! pump at the baseline's rate); dry sink: a dry cooler at dry-bulb + `sink_approach_k`, its
+//! fans `dry_cooler_fan_w_per_kw` per kW rejected (default 20 W/kW, common practice for
+//! screening). Both cycles condense against the sink.
 //!
-//! Supply temperature rule (heat request): the store's top temperature clamped to
-//! `[t_supply_min_c, t_supply_max]`, where the minimum is the spec's (default: the engine's
-//! lowest workable supply at the design sink) and the maximum is the supply that reaches the
-//! engine's highest evaporating temperature. Without a store, the design supply. A colder store
-//! is lifted by the boiler to the minimum. With `surplus = "generate"` and a store at least at
-//! the asked supply, the route asks for the engine's full heat (to export electricity); else it
-//! asks only for the heat that drives the compressor.
+//! Cut-in (the plant's control, [`Route::cut_in_out_c`]): the engine starts when the store's
+//! top reaches `t_cut_in_c` and stops when it falls below `t_cut_out_c` (defaults: the design
+//! supply less 15 K and less 25 K, and never below the engine's lowest workable supply at the
+//! design sink — an engine run far below its design supply turns 2–4 % of the heat into shaft
+//! work, which is not worth the starts; common practice). While enabled the route asks at the
+//! store's top temperature (at most the supply that reaches the engine's highest evaporating
+//! temperature); the plant draws only at or above that temperature (no boiler behind an engine).
+//! With `surplus = "generate"` the route asks for the engine's full heat (to export
+//! electricity); else only for the heat that drives the compressor.
 //!
 //! Per hour: 2 Rankine flashes + 2 VC flashes per solve (Brent, ~10 iterations of one cubic
 //! each), table look-ups otherwise. `heat_request` and `run` see the same hour's temperatures:
 //! the engine and chiller solved for the first are kept (keyed by the exact supply and sink
 //! temperatures) and serve the second, so each hour solves the two cycles once.
 
-use super::{HeatRequest, HeatSupplied, HourConditions, Memo, Reason, Route, RouteHour};
+use super::conventional::Conventional;
+use super::{
+    Cooling, Electricity, HeatRequest, HeatSupplied, HourConditions, Memo, Reason, Route, RouteHour,
+};
 use crate::components::chiller_electric::ChillerSpec;
 use crate::components::rankine::{EngineOp, RankineCycle, RankineEngine};
 use crate::components::vapour_compression::{ChillerOp, VcChiller, VcCycle};
@@ -101,8 +113,8 @@ fn d_approach_cond() -> f64 {
 fn d_eta_mech() -> f64 {
     0.95
 }
-fn d_eta_motor() -> f64 {
-    0.93
+fn d_dry_fan() -> f64 {
+    20.0
 }
 fn d_eta_gen() -> f64 {
     0.9
@@ -185,12 +197,12 @@ pub struct RankineVcSpec {
     /// Chilled-water supply, °C (default: the baseline chiller's).
     #[serde(default)]
     pub t_chw_supply_c: Option<f64>,
-    /// Shaft/coupling efficiency between engine or motor and compressor (default 0.95).
+    /// Shaft/coupling efficiency between engine and compressor (default 0.95).
     #[serde(default = "d_eta_mech")]
     pub eta_mech: f64,
-    /// Motor efficiency (default 0.93).
-    #[serde(default = "d_eta_motor")]
-    pub eta_motor: f64,
+    /// Dry-cooler fan electricity per kW of heat rejected, W/kW (`sink = "dry"`; default 20).
+    #[serde(default = "d_dry_fan")]
+    pub dry_cooler_fan_w_per_kw: f64,
     /// `curtail` or `generate` (default curtail).
     #[serde(default = "d_surplus")]
     pub surplus: Surplus,
@@ -212,9 +224,13 @@ pub struct RankineVcSpec {
     /// Sink temperature at design, °C (default 29.44 = 85 °F, AHRI water-cooled rating).
     #[serde(default = "d_t_sink_design")]
     pub t_sink_design_c: f64,
-    /// Lowest supply asked, °C (default: engine minimum at the design sink).
+    /// Store top that starts the engine, °C (default: `t_cut_out_c` + 10 K).
     #[serde(default)]
-    pub t_supply_min_c: Option<f64>,
+    pub t_cut_in_c: Option<f64>,
+    /// Store top below which the engine stops, °C (default: the design supply less 25 K, at
+    /// least the engine's lowest workable supply at the design sink).
+    #[serde(default)]
+    pub t_cut_out_c: Option<f64>,
     /// `backup-chiller` or `unmet` (default backup-chiller).
     #[serde(default = "d_shortfall")]
     pub shortfall: Shortfall,
@@ -281,11 +297,17 @@ impl RankineVcSpec {
                 "compressor isentropic efficiency",
             ),
             ("eta_mech", self.eta_mech, "shaft coupling efficiency"),
-            ("eta_motor", self.eta_motor, "motor efficiency"),
             ("eta_generator", self.eta_generator, "generator efficiency"),
         ] {
             eff(k, v, m)?;
         }
+        validate::in_range(
+            "dry_cooler_fan_w_per_kw",
+            self.dry_cooler_fan_w_per_kw,
+            0.0,
+            100.0,
+            "dry-cooler fan power per kW rejected, W/kW",
+        )?;
         validate::in_range(
             "sink_approach_k",
             self.sink_approach_k,
@@ -339,17 +361,23 @@ impl RankineVcSpec {
 pub struct RankineVc {
     pub engine: RankineEngine,
     pub chiller: VcChiller,
-    pub baseline: ChillerSpec,
+    /// The backup chiller: the `[baseline]` plant (module docs).
+    pub backup_chiller: Conventional,
+    /// Condenser- and chilled-water pump rates of the `[baseline]` plant, W/kW.
+    pub pump_cw_w_per_kw: f64,
+    pub pump_chw_w_per_kw: f64,
+    pub dry_cooler_fan_w_per_kw: f64,
     pub t_chw_c: f64,
     pub eta_mech: f64,
-    pub eta_motor: f64,
     pub eta_generator: f64,
     pub surplus: Surplus,
     pub sink: Sink,
     pub sink_approach_k: f64,
     pub t_sink_min_c: f64,
     pub t_supply_design_c: f64,
-    pub t_supply_min_c: f64,
+    /// Store cut-in and cut-out of the engine, °C (module docs).
+    pub t_cut_in_c: f64,
+    pub t_cut_out_c: f64,
     pub shortfall: Shortfall,
     /// Engine design shaft power, kW (drives the compressor at design capacity).
     pub engine_shaft_design_kw: f64,
@@ -414,15 +442,27 @@ pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> 
     )?;
     let design = chiller.operate(t_chw, spec.t_sink_design_c)?;
     let t_min_engine = engine.t_supply_min_c(spec.t_sink_design_c);
-    let t_supply_min = spec.t_supply_min_c.unwrap_or(t_min_engine);
-    if t_supply_min < t_min_engine || t_supply_min > engine.t_supply_max_c() {
+    let t_max_engine = engine.t_supply_max_c();
+    let t_cut_out = spec
+        .t_cut_out_c
+        .unwrap_or((spec.t_supply_design_c - 25.0).max(t_min_engine));
+    if t_cut_out < t_min_engine || t_cut_out > t_max_engine {
         return Err(Error::input(
-            "t_supply_min_c",
-            t_supply_min,
+            "t_cut_out_c",
+            t_cut_out,
             format!(
-                "must be between {t_min_engine:.1} °C (the engine's minimum at the design sink) and {:.1} °C",
-                engine.t_supply_max_c()
+                "must be between {t_min_engine:.1} °C (the engine's minimum at the design sink) and {t_max_engine:.1} °C"
             ),
+        ));
+    }
+    let t_cut_in = spec
+        .t_cut_in_c
+        .unwrap_or((t_cut_out + 10.0).min(t_max_engine));
+    if t_cut_in < t_cut_out || t_cut_in > t_max_engine {
+        return Err(Error::input(
+            "t_cut_in_c",
+            t_cut_in,
+            format!("must be between t_cut_out_c = {t_cut_out:.1} °C and {t_max_engine:.1} °C"),
         ));
     }
     if spec.t_supply_design_c < t_min_engine {
@@ -451,17 +491,20 @@ pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> 
         tower,
         engine,
         chiller,
-        baseline: baseline.clone(),
+        backup_chiller: Conventional::new(baseline.clone())?,
+        pump_cw_w_per_kw: baseline.pump_cw_w_per_kw,
+        pump_chw_w_per_kw: baseline.pump_chw_w_per_kw,
+        dry_cooler_fan_w_per_kw: spec.dry_cooler_fan_w_per_kw,
         t_chw_c: t_chw,
         eta_mech: spec.eta_mech,
-        eta_motor: spec.eta_motor,
         eta_generator: spec.eta_generator,
         surplus: spec.surplus,
         sink: spec.sink,
         sink_approach_k: spec.sink_approach_k,
         t_sink_min_c: spec.t_sink_min_c,
         t_supply_design_c: spec.t_supply_design_c,
-        t_supply_min_c: t_supply_min,
+        t_cut_in_c: t_cut_in,
+        t_cut_out_c: t_cut_out,
         shortfall: spec.shortfall,
         engine_shaft_design_kw: cap / design.point.cop / spec.eta_mech,
     })
@@ -474,10 +517,12 @@ pub enum RankineVcReason {
     NoLoad,
     /// Load above the chiller's capacity at this hour's temperatures.
     CapacityLimit,
-    /// The engine could not run (supply too cold for the sink, or no heat): motor only.
+    /// The engine cannot run at this supply and sink: backup chiller only.
     EngineOff,
-    /// The engine carried only part of the shaft; the motor the rest.
-    MotorAssist,
+    /// No store heat may be drawn (store below the cut-in band): backup chiller only.
+    StoreBelowCutIn,
+    /// Less heat arrived than was asked: the engine carried less, the backup the rest.
+    HeatShort,
 }
 
 impl RankineVcReason {
@@ -488,7 +533,8 @@ impl RankineVcReason {
             Self::NoLoad => "no-load",
             Self::CapacityLimit => "capacity-limit",
             Self::EngineOff => "engine-off",
-            Self::MotorAssist => "motor-assist",
+            Self::StoreBelowCutIn => "store-below-cut-in",
+            Self::HeatShort => "heat-short",
         }
     }
 }
@@ -501,19 +547,17 @@ pub struct RankineVcHour {
     pub t_return_c: f64,
     /// Engine thermal efficiency (0 when off).
     pub engine_efficiency: f64,
-    /// Engine shaft work from the sun's (and boiler's) heat, kWh.
+    /// Engine shaft work from the driving heat, kWh.
     pub shaft_from_heat_kwh: f64,
-    pub motor_electricity_kwh: f64,
     pub chiller_cop: f64,
-    pub cooling_kwh: f64,
-    pub unmet_kwh: f64,
-    /// Baseline chiller's electricity for the shortfall, kWh.
-    pub backup_electricity_kwh: f64,
+    /// Cooling the engine drove, kWh (shaft × η_mech × COP, at most load and capacity).
+    pub cooling_sun_kwh: f64,
+    /// Load left for the backup chiller (or unmet), kWh.
+    pub rest_kwh: f64,
     /// Driving heat used by the engine, kWh.
     pub heat_used_kwh: f64,
-    /// Cooling per unit of driving heat (0 when no heat).
-    pub cop_thermal_combined: f64,
     pub engine_heat_rejected_kwh: f64,
+    /// Heat rejected by the engine-driven chiller's condenser, kWh.
     pub chiller_heat_rejected_kwh: f64,
     /// Exported electricity from surplus shaft, kWh (generate mode).
     pub surplus_electricity_kwh: f64,
@@ -565,20 +609,20 @@ impl RankineVc {
         }
     }
 
-    fn t_supply(&self, t_store_top_c: Option<f64>) -> f64 {
-        match t_store_top_c {
-            Some(t) if t.is_finite() => {
-                t.max(self.t_supply_min_c).min(self.engine.t_supply_max_c())
-            }
-            _ => self.t_supply_design_c,
-        }
+    /// Supply the engine runs at: the store's top less the valve's control margin
+    /// ([`super::SUPPLY_MARGIN_K`]), at most the supply that reaches its highest evaporating
+    /// temperature; `None` when no store heat may be drawn.
+    fn t_supply(&self, t_store_top_c: Option<f64>) -> Option<f64> {
+        t_store_top_c
+            .filter(|t| t.is_finite())
+            .map(|t| (t - super::SUPPLY_MARGIN_K).min(self.engine.t_supply_max_c()))
     }
 
     /// Solve the hour. `heat` is `None` to compute only what the route wants (heat request);
-    /// with `Some`, the engine runs on that heat.
+    /// with `Some`, the engine runs on that heat. The backup chiller is not run here (`run`).
     ///
     /// Never panics; a cycle the models refuse (temperatures outside a fluid's range) turns
-    /// the engine off or hands the load to the shortfall rule.
+    /// the engine off and hands the load to the backup.
     pub fn solve_hour(
         &self,
         c: &HourConditions,
@@ -586,107 +630,86 @@ impl RankineVc {
         heat: Option<HeatSupplied>,
     ) -> RankineVcHour {
         let t_sink = self.t_sink_c(c);
-        let t_supply = self.t_supply(t_store_top_c);
         let load = c.load.cooling_kw();
         let load = if load.is_finite() { load.max(0.0) } else { 0.0 };
+        let t_supply = self.t_supply(t_store_top_c);
         let mut h = RankineVcHour {
             t_sink_c: t_sink,
-            t_supply_c: t_supply,
-            t_return_c: t_supply,
+            t_supply_c: t_supply.unwrap_or(0.0),
+            t_return_c: t_supply.unwrap_or(0.0),
             engine_efficiency: 0.0,
             shaft_from_heat_kwh: 0.0,
-            motor_electricity_kwh: 0.0,
             chiller_cop: 0.0,
-            cooling_kwh: 0.0,
-            unmet_kwh: 0.0,
-            backup_electricity_kwh: 0.0,
+            cooling_sun_kwh: 0.0,
+            rest_kwh: load,
             heat_used_kwh: 0.0,
-            cop_thermal_combined: 0.0,
             engine_heat_rejected_kwh: 0.0,
             chiller_heat_rejected_kwh: 0.0,
             surplus_electricity_kwh: 0.0,
             heat_wanted_kwh: 0.0,
-            reason: RankineVcReason::NoLoad,
-        };
-        let (engine, chiller) = self.cycles(t_supply, t_sink, load > 0.0);
-        let (cooling, w_shaft) = match &chiller {
-            Some(op) => {
-                let q = load.min(op.capacity_kw);
-                (q, q / op.point.cop / self.eta_mech)
-            }
-            None => (0.0, 0.0),
-        };
-        let generate = self.surplus == Surplus::Generate
-            && t_store_top_c.is_some_and(|t| t >= t_supply - 1e-9);
-        if let Some(e) = &engine {
-            let eta = e.point.eta_th;
-            let shaft_wanted = if generate {
-                self.engine_shaft_design_kw
+            reason: if load > 0.0 {
+                RankineVcReason::StoreBelowCutIn
             } else {
-                w_shaft.min(self.engine_shaft_design_kw)
-            };
-            h.heat_wanted_kwh = shaft_wanted / eta;
-            h.t_return_c = e.t_return_c;
-            h.engine_efficiency = eta;
+                RankineVcReason::NoLoad
+            },
+        };
+        let Some(t_supply) = t_supply else {
+            return h;
+        };
+        // The engine runs only to cool (with `generate`, its surplus shaft is exported while
+        // it cools; it is not started for export alone).
+        if load <= 0.0 {
+            return h;
         }
+        let generate = self.surplus == Surplus::Generate;
+        let (engine, chiller) = self.cycles(t_supply, t_sink, true);
+        let (Some(e), Some(op)) = (engine, chiller) else {
+            h.reason = RankineVcReason::EngineOff;
+            return h;
+        };
+        let eta = e.point.eta_th;
+        h.t_return_c = e.t_return_c;
+        h.engine_efficiency = eta;
+        h.chiller_cop = op.point.cop;
+        // Shaft the compressor needs for the load it can take.
+        let q_max = load.min(op.capacity_kw);
+        let w_need = q_max / op.point.cop / self.eta_mech;
+        let shaft_wanted = if generate {
+            self.engine_shaft_design_kw
+        } else {
+            w_need.min(self.engine_shaft_design_kw)
+        };
+        h.heat_wanted_kwh = shaft_wanted / eta;
         let Some(given) = heat else {
             return h;
         };
-        if load <= 0.0 && !generate {
-            return h;
-        }
         let q_heat = (given.solar_kwh + given.backup_kwh).max(0.0);
-        if let Some(e) = &engine {
-            let eta = e.point.eta_th;
-            let shaft = (q_heat * eta).min(self.engine_shaft_design_kw);
-            let used_for_comp = shaft.min(w_shaft);
-            let surplus = shaft - used_for_comp;
-            let (shaft_run, heat_run) = match self.surplus {
-                Surplus::Generate => (shaft, shaft / eta),
-                Surplus::Curtail => (used_for_comp, used_for_comp / eta),
-            };
-            h.shaft_from_heat_kwh = shaft_run;
-            h.heat_used_kwh = heat_run;
-            h.engine_heat_rejected_kwh = heat_run - shaft_run;
-            if self.surplus == Surplus::Generate {
-                h.surplus_electricity_kwh = surplus * self.eta_generator;
-            }
-            h.motor_electricity_kwh = (w_shaft - used_for_comp) / self.eta_motor;
-        } else {
-            h.motor_electricity_kwh = w_shaft / self.eta_motor;
+        let shaft = (q_heat * eta).min(self.engine_shaft_design_kw);
+        let used_for_comp = shaft.min(w_need);
+        let (shaft_run, heat_run) = match self.surplus {
+            Surplus::Generate => (shaft, shaft / eta),
+            Surplus::Curtail => (used_for_comp, used_for_comp / eta),
+        };
+        h.shaft_from_heat_kwh = shaft_run;
+        h.heat_used_kwh = heat_run;
+        h.engine_heat_rejected_kwh = heat_run - shaft_run;
+        if self.surplus == Surplus::Generate {
+            h.surplus_electricity_kwh = (shaft - used_for_comp) * self.eta_generator;
         }
-        if let Some(op) = &chiller {
-            h.chiller_cop = op.point.cop;
-            h.cooling_kwh = cooling;
-            // Condenser heat = cooling + compressor work; coupling losses leave as heat too.
-            h.chiller_heat_rejected_kwh = cooling * (1.0 + 1.0 / op.point.cop);
-        }
-        let short = load - h.cooling_kwh;
-        if short > 1e-9 {
-            match self.shortfall {
-                Shortfall::Unmet => h.unmet_kwh = short,
-                Shortfall::BackupChiller => {
-                    let b = self.baseline.run_hour(short, t_sink, self.t_chw_c);
-                    h.cooling_kwh += b.cooling_kwh;
-                    h.unmet_kwh = b.unmet_kwh;
-                    h.backup_electricity_kwh = b.electricity_kwh;
-                    h.chiller_heat_rejected_kwh += b.heat_rejected_kwh;
-                }
-            }
-        }
-        if h.heat_used_kwh > 0.0 {
-            h.cop_thermal_combined = h.cooling_kwh / h.heat_used_kwh;
-        }
-        h.reason = if load <= 0.0 {
-            RankineVcReason::NoLoad
-        } else if short > 1e-9 {
-            RankineVcReason::CapacityLimit
-        } else if h.shaft_from_heat_kwh <= 0.0 {
-            RankineVcReason::EngineOff
-        } else if h.motor_electricity_kwh > 1e-9 {
-            RankineVcReason::MotorAssist
-        } else {
+        h.cooling_sun_kwh = (used_for_comp * self.eta_mech * op.point.cop).min(q_max);
+        // Condenser heat = cooling + compressor work; coupling losses leave as heat too.
+        h.chiller_heat_rejected_kwh = h.cooling_sun_kwh + used_for_comp;
+        h.rest_kwh = (load - h.cooling_sun_kwh).max(0.0);
+        h.reason = if h.cooling_sun_kwh <= 0.0 {
+            RankineVcReason::HeatShort
+        } else if h.rest_kwh <= 1e-9 {
             RankineVcReason::Ok
+        } else if q_heat * eta < w_need.min(self.engine_shaft_design_kw) * (1.0 - 1e-9) {
+            RankineVcReason::HeatShort
+        } else {
+            // Load above the chiller's capacity, or a compressor needing more shaft than the
+            // engine's design: the backup carries the rest.
+            RankineVcReason::CapacityLimit
         };
         h
     }
@@ -695,6 +718,10 @@ impl RankineVc {
 impl Route for RankineVc {
     fn kind(&self) -> &'static str {
         "rankine-vc"
+    }
+
+    fn cut_in_out_c(&self) -> Option<(f64, f64)> {
+        Some((self.t_cut_in_c, self.t_cut_out_c))
     }
 
     fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest> {
@@ -714,42 +741,68 @@ impl Route for RankineVc {
         heat: Option<HeatSupplied>,
     ) -> RouteHour {
         let h = self.solve_hour(c, t_store_top_c, Some(heat.unwrap_or_default()));
-        let elec = h.motor_electricity_kwh + h.backup_electricity_kwh;
+        if h.reason == RankineVcReason::NoLoad && h.heat_used_kwh <= 0.0 {
+            return RouteHour::no_load();
+        }
         let rejected = h.engine_heat_rejected_kwh + h.chiller_heat_rejected_kwh;
-        let tower = self
-            .tower
-            .as_ref()
-            .filter(|_| rejected > 0.0)
-            .and_then(|t| t.run(rejected, c.t_wb_c, c.p_kpa).ok());
-        let elec = elec + tower.map_or(0.0, |t| t.fan_kwh);
-        RouteHour {
-            cooling_kwh: h.cooling_kwh,
-            unmet_kwh: h.unmet_kwh,
-            electricity_kwh: elec,
-            heat_rejected_kwh: rejected,
-            cop_thermal: (h.heat_used_kwh > 0.0).then_some(h.cop_thermal_combined),
-            cop_electric: (elec > 0.0).then(|| h.cooling_kwh / elec),
-            reason: match h.reason {
-                RankineVcReason::NoLoad => Reason::NoLoad,
-                RankineVcReason::CapacityLimit => Reason::CapacityLimit,
-                RankineVcReason::Ok => Reason::Ok,
-                RankineVcReason::EngineOff => Reason::EngineOff,
-                RankineVcReason::MotorAssist => Reason::MotorAssist,
+        let (fan_kwh, water_m3, cw_pump_kwh) = match (&self.tower, self.sink) {
+            (Some(t), Sink::Wet) if rejected > 0.0 => {
+                let tw = t.run_held(rejected, c.t_wb_c, c.p_kpa, h.t_sink_c).ok();
+                (
+                    tw.map_or(t.fan_kw, |r| r.fan_kwh),
+                    tw.map_or(0.0, |r| r.water_m3),
+                    self.pump_cw_w_per_kw * rejected / 1000.0,
+                )
+            }
+            (_, Sink::Dry) => (self.dry_cooler_fan_w_per_kw * rejected / 1000.0, 0.0, 0.0),
+            _ => (0.0, 0.0, 0.0),
+        };
+        let pumps = cw_pump_kwh + self.pump_chw_w_per_kw * h.cooling_sun_kwh / 1000.0;
+        let mut out = RouteHour {
+            cooling: Cooling {
+                heat_driven_kwh: h.cooling_sun_kwh,
+                ..Cooling::default()
             },
-            water_m3: tower.map_or(0.0, |t| t.water_m3),
-            // The share of the cooling the motor drove counts as backup, so the seasonal
-            // thermal COP is the sun-driven cooling per solar heat.
-            backup_cooling_kwh: (h.cooling_kwh - h.cop_thermal_combined * h.heat_used_kwh).max(0.0),
+            electricity: Electricity {
+                compressor_kwh: 0.0,
+                heat_rejection_kwh: fan_kwh,
+                pumps_kwh: pumps,
+                air_handling_kwh: 0.0,
+            },
+            heat_rejected_kwh: rejected + fan_kwh + pumps,
+            water_m3,
             t_drive_c: (h.heat_used_kwh > 0.0).then_some(h.t_supply_c),
             t_sink_c: Some(h.t_sink_c),
+            t_chw_c: (h.cooling_sun_kwh > 0.0).then_some(self.t_chw_c),
+            pv_export_kwh: 0.0,
             detail: [
                 ("engine_efficiency", h.engine_efficiency),
                 ("shaft_from_heat_kwh", h.shaft_from_heat_kwh),
-                ("motor_kwh", h.motor_electricity_kwh),
+                ("surplus_kwh", h.surplus_electricity_kwh),
                 ("chiller_cop", h.chiller_cop),
             ],
             ..RouteHour::default()
+        };
+        if h.rest_kwh > 1e-9 {
+            match self.shortfall {
+                Shortfall::Unmet => out.unmet_kwh = h.rest_kwh,
+                Shortfall::BackupChiller => {
+                    let b = self.backup_chiller.serve(c, h.rest_kwh);
+                    out.add_backup(&b);
+                    out.unmet_kwh = b.unmet_kwh;
+                }
+            }
         }
+        out.reason = match h.reason {
+            RankineVcReason::NoLoad => Reason::NoLoad,
+            _ if out.unmet_kwh > 1e-6 => Reason::CapacityLimit,
+            RankineVcReason::CapacityLimit => Reason::CapacityLimit,
+            RankineVcReason::Ok => Reason::Ok,
+            RankineVcReason::EngineOff => Reason::EngineOff,
+            RankineVcReason::StoreBelowCutIn => Reason::StoreBelowCutIn,
+            RankineVcReason::HeatShort => Reason::HeatShort,
+        };
+        out
     }
 }
 
@@ -814,81 +867,102 @@ mod tests {
         let r = build(&spec(), &base()).unwrap();
         let c = hour(60.0, 24.0);
         let req = r.heat_request(&c, Some(130.0)).unwrap();
-        assert!((req.t_supply_c - 130.0).abs() < 1e-12);
+        // The engine runs at the store's top less the valve's control margin.
+        assert!((req.t_supply_c - (130.0 - crate::routes::SUPPLY_MARGIN_K)).abs() < 1e-12);
         assert!(req.t_return_c < req.t_supply_c);
-        let h = r.solve_hour(
-            &c,
-            Some(130.0),
-            Some(HeatSupplied {
-                solar_kwh: req.heat_kwh,
-                backup_kwh: 0.0,
-            }),
-        );
+        let given = Some(HeatSupplied {
+            solar_kwh: req.heat_kwh,
+            backup_kwh: 0.0,
+        });
+        let h = r.solve_hour(&c, Some(130.0), given);
         assert_eq!(h.reason, RankineVcReason::Ok);
-        assert!(h.motor_electricity_kwh.abs() < 1e-9);
-        assert!((h.cooling_kwh - 60.0).abs() < 1e-9);
+        assert!((h.cooling_sun_kwh - 60.0).abs() < 1e-9 && h.rest_kwh < 1e-9);
+        let cop = h.cooling_sun_kwh / h.heat_used_kwh;
         let expect = h.engine_efficiency * r.eta_mech * h.chiller_cop;
-        assert!((h.cop_thermal_combined - expect).abs() < 1e-9);
-        // Trade range 0.3–0.7 (common practice).
-        assert!(
-            h.cop_thermal_combined > 0.3 && h.cop_thermal_combined < 0.7,
-            "{}",
-            h.cop_thermal_combined
-        );
-        let rh = r.run(
-            &c,
-            Some(130.0),
-            Some(HeatSupplied {
-                solar_kwh: req.heat_kwh,
-                backup_kwh: 0.0,
-            }),
-        );
-        assert!((rh.cooling_kwh - 60.0).abs() < 1e-9);
-        // First law of the whole route: rejected = cooling + heat in + motor input − export.
-        let balance = h.heat_used_kwh + h.cooling_kwh + h.motor_electricity_kwh * r.eta_motor
-            - h.engine_heat_rejected_kwh
-            - h.chiller_heat_rejected_kwh;
-        // Coupling losses (1 − η_mech) of the shaft leave as heat not yet counted.
-        let w_shaft = h.cooling_kwh / h.chiller_cop / r.eta_mech;
-        assert!(
-            (balance - w_shaft * (1.0 - r.eta_mech)).abs() < 1e-6,
-            "{balance}"
-        );
+        assert!((cop - expect).abs() < 1e-9);
+        // Trade range of Rankine-driven vapour compression at 120–140 °C: 0.3–0.7 (common
+        // practice).
+        assert!(cop > 0.3 && cop < 0.7, "{cop}");
+        let rh = r.run(&c, Some(130.0), given);
+        assert!((rh.cooling.heat_driven_kwh - 60.0).abs() < 1e-9);
+        assert_eq!(rh.cooling.electric_kwh, 0.0);
+        // First law of the whole route: heat in + cooling = heat rejected (the coupling's
+        // losses leave with the chiller's condenser heat).
+        let balance =
+            h.heat_used_kwh + h.cooling_sun_kwh + rh.electricity_kwh() - rh.heat_rejected_kwh;
+        assert!(balance.abs() < 1e-9, "{balance}");
     }
 
-    /// Half the heat: the motor carries the other half of the shaft.
+    /// Half the heat: the engine drives half the cooling; the other half is the baseline
+    /// plant's, charged exactly as the reference would be for 30 kW.
     #[test]
-    fn motor_carries_the_rest() {
+    fn backup_carries_the_rest() {
         let r = build(&spec(), &base()).unwrap();
         let c = hour(60.0, 24.0);
         let req = r.heat_request(&c, Some(130.0)).unwrap();
-        let h = r.solve_hour(
-            &c,
-            Some(130.0),
-            Some(HeatSupplied {
-                solar_kwh: 0.5 * req.heat_kwh,
-                backup_kwh: 0.0,
-            }),
-        );
-        assert_eq!(h.reason, RankineVcReason::MotorAssist);
-        let w_shaft = 60.0 / h.chiller_cop / r.eta_mech;
-        assert!((h.shaft_from_heat_kwh - 0.5 * w_shaft).abs() < 1e-9);
-        assert!((h.motor_electricity_kwh - 0.5 * w_shaft / r.eta_motor).abs() < 1e-9);
+        let half = Some(HeatSupplied {
+            solar_kwh: 0.5 * req.heat_kwh,
+            backup_kwh: 0.0,
+        });
+        let h = r.solve_hour(&c, Some(130.0), half);
+        assert_eq!(h.reason, RankineVcReason::HeatShort);
+        assert!((h.cooling_sun_kwh - 30.0).abs() < 1e-9, "{h:?}");
+        let rh = r.run(&c, Some(130.0), half);
+        let b = r.backup_chiller.serve(&c, 30.0);
+        assert!((rh.cooling.electric_kwh - 30.0).abs() < 1e-9);
+        assert!((rh.electricity.compressor_kwh - b.compressor_kwh).abs() < 1e-12);
         let none = r.solve_hour(&c, Some(130.0), Some(HeatSupplied::default()));
-        assert_eq!(none.reason, RankineVcReason::EngineOff);
+        assert_eq!(none.reason, RankineVcReason::HeatShort);
+        assert_eq!(none.cooling_sun_kwh, 0.0);
     }
 
-    /// Cold store: ask at the minimum supply; no load: no request; surplus generation.
+    /// Below the cut-in band (no store temperature passed): the hour is the baseline plant's,
+    /// to the last bit. Cut-in defaults: design supply − 25 K (at least the engine's minimum)
+    /// and 10 K above that.
     #[test]
-    fn supply_rule_and_surplus() {
+    fn store_below_cut_in_is_the_baseline() {
         let r = build(&spec(), &base()).unwrap();
         let c = hour(60.0, 24.0);
-        let req = r.heat_request(&c, Some(40.0)).unwrap();
-        assert!((req.t_supply_c - r.t_supply_min_c).abs() < 1e-12);
+        assert!(r.heat_request(&c, None).is_none());
+        let rh = r.run(&c, None, None);
+        assert_eq!(rh.reason, Reason::StoreBelowCutIn);
+        let b = RouteHour::from_conventional(
+            &r.backup_chiller.serve(&c, 60.0),
+            Reason::StoreBelowCutIn,
+        );
+        assert_eq!(
+            (
+                rh.cooling,
+                rh.electricity,
+                rh.water_m3,
+                rh.heat_rejected_kwh,
+                rh.unmet_kwh
+            ),
+            (
+                b.cooling,
+                b.electricity,
+                b.water_m3,
+                b.heat_rejected_kwh,
+                b.unmet_kwh
+            )
+        );
+        let t_min = r.engine.t_supply_min_c(29.44);
+        assert!((r.t_cut_out_c - (120.0f64 - 25.0).max(t_min)).abs() < 1e-12);
+        assert!((r.t_cut_in_c - (r.t_cut_out_c + 10.0)).abs() < 1e-12);
+        // A store too cold for the engine at this sink: no operating point, no heat asked.
+        assert!(r.heat_request(&c, Some(40.0)).is_none());
+        assert_eq!(r.run(&c, Some(40.0), None).reason, Reason::EngineOff);
         assert!(r.heat_request(&hour(0.0, 24.0), Some(130.0)).is_none());
+    }
+
+    /// Surplus generation: the engine runs at its design shaft while it cools and exports the
+    /// surplus through the generator.
+    #[test]
+    fn surplus_is_generated() {
         let mut s = spec();
         s.surplus = Surplus::Generate;
         let g = build(&s, &base()).unwrap();
+        let c = hour(30.0, 24.0);
         let req = g.heat_request(&c, Some(130.0)).unwrap();
         let h = g.solve_hour(
             &c,
@@ -900,6 +974,9 @@ mod tests {
         );
         assert!(h.surplus_electricity_kwh > 0.0);
         assert!((h.shaft_from_heat_kwh - g.engine_shaft_design_kw).abs() < 1e-9);
+        let used = h.cooling_sun_kwh / h.chiller_cop / g.eta_mech;
+        let expect = (h.shaft_from_heat_kwh - used) * g.eta_generator;
+        assert!((h.surplus_electricity_kwh - expect).abs() < 1e-9);
     }
 
     #[test]
@@ -922,6 +999,11 @@ mod tests {
         let mut s = spec();
         s.eta_mech = 0.0;
         assert!(build(&s, &base()).is_err());
+        let mut s = spec();
+        s.t_cut_in_c = Some(90.0);
+        s.t_cut_out_c = Some(100.0); // cut-out above cut-in
+        let e = build(&s, &base()).unwrap_err().to_string();
+        assert!(e.contains("t_cut_in_c"), "{e}");
         let mut s = spec();
         s.t_supply_design_c = 25.0; // colder than the design sink
         assert!(build(&s, &base()).is_err());

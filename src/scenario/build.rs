@@ -25,10 +25,6 @@ use crate::sun::position::{Site, SunPosition, year_positions};
 use crate::sun::sky::{SkyModel, plane_irradiance};
 use crate::weather::{Humidity, WeatherYear, calendar};
 
-/// Cooling-tower approach to wet-bulb for the water-cooled baseline chiller, K: design
-/// approaches of 3–5 K are usual (common practice).
-pub const TOWER_APPROACH_K: f64 = 4.0;
-
 /// Hot-water draw profile used when the scenario gives none: fraction of the day's draw in
 /// each hour, morning and evening peaks (common practice; invented for the project, not a
 /// published profile).
@@ -359,9 +355,9 @@ fn build_route(l: &Loaded, o: &OptionSection, p: &Prepared) -> Result<Box<dyn Ro
     let s = &l.scenario;
     let base = &s.baseline;
     Ok(match o.route {
-        RouteKind::Electric => Box::new(
-            Electric::new(base.clone(), TOWER_APPROACH_K).map_err(|e| e.within("", "baseline"))?,
-        ),
+        RouteKind::Electric => {
+            Box::new(Electric::new(base.clone()).map_err(|e| e.within("", "baseline"))?)
+        }
         RouteKind::Absorption => {
             let spec = o
                 .absorption
@@ -424,8 +420,7 @@ fn build_route(l: &Loaded, o: &OptionSection, p: &Prepared) -> Result<Box<dyn Ro
                 })
                 .collect();
             Box::new(crate::routes::pv_electric::PvElectric {
-                chiller: Electric::new(base.clone(), TOWER_APPROACH_K)
-                    .map_err(|e| e.within("", "baseline"))?,
+                chiller: Electric::new(base.clone()).map_err(|e| e.within("", "baseline"))?,
                 pv_ac_kwh,
             })
         }
@@ -441,6 +436,11 @@ pub fn build_options(l: &Loaded, p: &Prepared) -> Result<Vec<BuiltOption>> {
         let prefix = format!("options.{name}");
         let route = build_route(l, o, p).map_err(|e| e.within(&file, &prefix))?;
         let (solar, gross_m2, store_m3) = match (&o.field, &o.storage) {
+            // A field of zero area is no field: the option runs without a solar loop (and
+            // without its store), so it can be set against the reference with no sun.
+            (Some(f), Some(_)) if f.modules == Some(0) || f.gross_area_m2 == Some(0.0) => {
+                (None, 0.0, None)
+            }
             (Some(f), Some(st)) => {
                 let (loop_, gross, m3) =
                     solar_loop(s, f, st, p).map_err(|e| e.within(&file, &prefix))?;

@@ -412,8 +412,20 @@ fn field(s: &Scenario, f: &FieldSection) -> Result<()> {
         ));
     };
     match (f.modules, f.gross_area_m2) {
-        (Some(m), None) => count("modules", m, 1, 100_000, "number of collector modules")?,
-        (None, Some(a)) => positive("gross_area_m2", a, 1.0e6, "gross collector area, m²")?,
+        (Some(m), None) => count(
+            "modules",
+            m,
+            0,
+            100_000,
+            "number of collector modules (0: no field)",
+        )?,
+        (None, Some(a)) => in_range(
+            "gross_area_m2",
+            a,
+            0.0,
+            1.0e6,
+            "gross collector area, m² (0: no field)",
+        )?,
         _ => {
             return Err(Error::input(
                 "modules",
