@@ -88,6 +88,10 @@ pub enum Reason {
     HeatShort,
     /// Desiccant: supply air not cold enough with the coolers at design.
     SensibleLimit,
+    /// Desiccant, ventilation cycle: the building has no mechanical ventilation this hour
+    /// (unoccupied), so there is no outdoor air for the unit to treat: unit off, the backup
+    /// chiller (or `unmet`) carried the load.
+    NotVentilating,
     /// Rankine: no heat or supply too cold, the motor drove the compressor alone.
     EngineOff,
     /// Rankine: engine and motor shared the shaft.
@@ -109,6 +113,7 @@ impl Reason {
             Reason::LatentLimit => "latent-limit",
             Reason::HeatShort => "heat-short",
             Reason::SensibleLimit => "sensible-limit",
+            Reason::NotVentilating => "not-ventilating",
             Reason::EngineOff => "engine-off",
             Reason::MotorAssist => "motor-assist",
         }
