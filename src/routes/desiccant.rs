@@ -112,11 +112,19 @@ pub enum Unmet {
 fn d_ratio() -> f64 {
     1.0
 }
+/// Default wheel F1/F2 effectivenesses: 0.05 / 0.95, the ideal end of the range a good
+/// silica-gel wheel is given (`components::desiccant_wheel` docs; common practice, from memory).
+/// No published pair measured on a real wheel was found and read (searched: Jurinak 1982,
+/// Banks 1985, Duffie & Beckman's desiccant chapter, Panaras et al.), so this is an ASSUMPTION:
+/// it likely overstates a real wheel's drying. The scenario assumptions say so and the demos
+/// carry F1 0.05–0.20, F2 0.70–0.95 as uncertain inputs.
+pub const DEFAULT_EPS_F1_F2: (f64, f64) = (0.05, 0.95);
+
 fn d_eps_f1() -> f64 {
-    0.05
+    DEFAULT_EPS_F1_F2.0
 }
 fn d_eps_f2() -> f64 {
-    0.95
+    DEFAULT_EPS_F1_F2.1
 }
 fn d_eps_hw() -> f64 {
     0.8
@@ -167,10 +175,12 @@ pub struct DesiccantSpec {
     /// effectivenesses must be those of this ratio).
     #[serde(default = "d_ratio")]
     pub regen_flow_ratio: f64,
-    /// Desiccant wheel F1 effectiveness, 0..1 (default 0.05).
+    /// Desiccant wheel F1 effectiveness, 0..1 (default 0.05: ideal end, an assumption; see
+    /// [`DEFAULT_EPS_F1_F2`]).
     #[serde(default = "d_eps_f1")]
     pub eps_f1: f64,
-    /// Desiccant wheel F2 effectiveness, 0..1 (default 0.95).
+    /// Desiccant wheel F2 effectiveness, 0..1 (default 0.95: ideal end, an assumption; see
+    /// [`DEFAULT_EPS_F1_F2`]).
     #[serde(default = "d_eps_f2")]
     pub eps_f2: f64,
     /// Sensible heat wheel effectiveness, 0..1 (default 0.8).
