@@ -259,6 +259,28 @@ fn missing_section() {
     assert!(err.contains("baseline"), "{err}");
 }
 
+/// A desiccant ventilation-cycle option on a load file without a ventilation column is refused
+/// (its credit needs the building's outdoor-air flow), naming the key to add.
+#[test]
+fn desiccant_needs_ventilation_column_with_load_file() {
+    let t = demo_text()
+        .replace("source = \"model\"           #", "source = \"file\"            #")
+        .replace(
+            "[load.model]               #",
+            "[load.file]\npath = \"load.csv\"\nsensible_column = \"q\"\nunits = \"kW\"\n\n[load.model]               #",
+        );
+    assert!(t.contains("[load.file]") && t.contains("source = \"file\""));
+    assert_bad(
+        "vent-col",
+        &t,
+        &[
+            "load.file.ventilation_column",
+            "solar-desiccant",
+            "cycle = \"recirculation\"",
+        ],
+    );
+}
+
 #[test]
 fn absurd_latitude() {
     let t = demo_text().replace("latitude_deg = 11.7", "latitude_deg = 120.0");
@@ -539,6 +561,8 @@ fn markdown_report_has_every_table_assumptions_and_caution() {
         "## Caution",
         "|-----",
         "Legionella",
+        "desiccant wheel F1/F2 effectivenesses 0.05/0.95",
+        "off in hours when the building does not ventilate",
     ] {
         assert!(t.contains(s), "Markdown lacks {s}");
     }

@@ -36,6 +36,8 @@ fn hour(t_db_c: f64, w_kg_kg: f64, sensible_kw: f64, latent_kw: f64) -> Result<H
             latent_kw,
             heating_kw: 0.0,
             t_in_c: 26.0,
+            // The typical unit's own flow: it replaces all of the building's outdoor air.
+            ventilation_m3_h: 10_000.0,
         },
     })
 }

@@ -63,6 +63,12 @@ pub struct LoadFileSpec {
     /// Column with the space heating load; absent = no heating.
     #[serde(default)]
     pub heating_column: Option<String>,
+    /// Column with the outdoor air of the building's mechanical ventilation in that hour, m³/h
+    /// (whatever `units` says; infiltration not included): the flow whose load the load columns
+    /// contain. Absent = 0 every hour, and a scenario refuses a desiccant option with
+    /// `cycle = "ventilation"` (its credit depends on this flow) until the column is named.
+    #[serde(default)]
+    pub ventilation_column: Option<String>,
     /// Unit of all load columns: `"kW"` or `"W"`.
     pub units: PowerUnit,
     /// Indoor air temperature reported for every hour, °C (the file carries none; default
@@ -93,6 +99,7 @@ impl LoadFileSpec {
             ("sensible_column", Some(&self.sensible_column)),
             ("latent_column", self.latent_column.as_ref()),
             ("heating_column", self.heating_column.as_ref()),
+            ("ventilation_column", self.ventilation_column.as_ref()),
         ] {
             if let Some(v) = v
                 && v.trim().is_empty()
@@ -128,7 +135,8 @@ fn bad(
 /// * `base_dir` – folder a relative `spec.path` is taken from (the scenario's folder)
 ///
 /// Returns 8760 [`LoadHour`]s in kW (`sensible_kw`, `latent_kw` and `heating_kw`, 0 for a
-/// column not given; `t_in_c = spec.t_in_c`), origin = the file path.
+/// column not given; `t_in_c = spec.t_in_c`; `ventilation_m3_h` in m³/h from
+/// `ventilation_column`, 0 without it), origin = the file path.
 /// Errors: unreadable file (`Error::Read`); not UTF-8, empty or too short for the header,
 /// duplicate or missing column names (key `header`); a row count other than 8760 (key
 /// `data rows`, naming the count or the first extra line); a missing, non-numeric, non-finite
@@ -237,6 +245,7 @@ fn parse(spec: &LoadFileSpec, file: &str, text: &str) -> Result<LoadYear> {
     let sens = find(&spec.sensible_column)?;
     let lat = spec.latent_column.as_deref().map(find).transpose()?;
     let heat = spec.heating_column.as_deref().map(find).transpose()?;
+    let vent = spec.ventilation_column.as_deref().map(find).transpose()?;
     let unit = spec.units;
     let scale = unit.to_kw();
 
@@ -261,7 +270,8 @@ fn parse(spec: &LoadFileSpec, file: &str, text: &str) -> Result<LoadYear> {
                 ),
             ));
         }
-        let cell = |col: usize| -> Result<f64> {
+        // A cell of column `col`, a finite number ≥ 0 in `unit_name`, times `scale`.
+        let read_cell = |col: usize, unit_name: &str, scale: f64| -> Result<f64> {
             let name = names[col];
             let key = || format!("line {line}, column {name}");
             let s = rec.get(col).ok_or_else(|| {
@@ -269,7 +279,7 @@ fn parse(spec: &LoadFileSpec, file: &str, text: &str) -> Result<LoadYear> {
                     file,
                     key(),
                     "(missing)",
-                    format!("must be a number ≥ 0 in {}", unit.name()),
+                    format!("must be a number ≥ 0 in {unit_name}"),
                 )
             })?;
             let v: f64 = s.parse().map_err(|_| {
@@ -277,7 +287,7 @@ fn parse(spec: &LoadFileSpec, file: &str, text: &str) -> Result<LoadYear> {
                     file,
                     key(),
                     format!("`{s}`"),
-                    format!("must be a number ≥ 0 in {}", unit.name()),
+                    format!("must be a number ≥ 0 in {unit_name}"),
                 )
             })?;
             if !v.is_finite() || v < 0.0 {
@@ -285,19 +295,21 @@ fn parse(spec: &LoadFileSpec, file: &str, text: &str) -> Result<LoadYear> {
                     file,
                     key(),
                     s,
-                    format!(
-                        "must be a finite number ≥ 0 in {} (a load, not a net flow)",
-                        unit.name()
-                    ),
+                    format!("must be a finite number ≥ 0 in {unit_name} (a load, not a net flow)"),
                 ));
             }
             Ok(v * scale)
         };
+        let cell = |col: usize| read_cell(col, unit.name(), scale);
         hours.push(LoadHour {
             sensible_kw: cell(sens)?,
             latent_kw: lat.map(cell).transpose()?.unwrap_or(0.0),
             heating_kw: heat.map(cell).transpose()?.unwrap_or(0.0),
             t_in_c: spec.t_in_c,
+            ventilation_m3_h: vent
+                .map(|c| read_cell(c, "m³/h", 1.0))
+                .transpose()?
+                .unwrap_or(0.0),
         });
         last_line = line;
     }
@@ -387,6 +399,33 @@ mod tests {
             e.contains("line 8, column q_lat") && e.contains("abc"),
             "{e}"
         );
+    }
+
+    /// The ventilation column is read in m³/h whatever `units` says; without it the flow is 0.
+    #[test]
+    fn ventilation_column_in_m3_h() {
+        let mut s = spec();
+        let text = year_text("q_sens,q_lat,oa", |i| {
+            format!("1000,250,{}", if i % 24 < 8 { 0 } else { 4500 })
+        });
+        assert_eq!(
+            parse(&s, "x.csv", &text).unwrap().hours[10].ventilation_m3_h,
+            0.0
+        );
+        s.ventilation_column = Some("oa".into());
+        let y = parse(&s, "x.csv", &text).unwrap();
+        assert_eq!(y.hours[10].ventilation_m3_h, 4500.0);
+        assert_eq!(y.hours[10].sensible_kw, 1.0);
+        assert_eq!(y.hours[3].ventilation_m3_h, 0.0);
+        let bad = year_text("q_sens,q_lat,oa", |i| {
+            if i == 6 {
+                "1,1,-5".into()
+            } else {
+                "1,1,0".into()
+            }
+        });
+        let e = parse(&s, "x.csv", &bad).unwrap_err().to_string();
+        assert!(e.contains("line 8, column oa") && e.contains("m³/h"), "{e}");
     }
 
     #[test]

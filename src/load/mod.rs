@@ -16,6 +16,10 @@ pub struct LoadHour {
     pub heating_kw: f64,
     /// Indoor air temperature, °C (set-point when conditioned, free-floating otherwise).
     pub t_in_c: f64,
+    /// Outdoor air of the building's mechanical ventilation this hour, m³/h (≥ 0): the flow
+    /// whose load is inside `sensible_kw`/`latent_kw` and that an outdoor-air unit can replace.
+    /// Infiltration is not in it. 0 when the building does not ventilate (unoccupied hours).
+    pub ventilation_m3_h: f64,
 }
 
 impl LoadHour {

@@ -757,7 +757,8 @@ fn drive(
 /// `H_ve = 1200 V̇ / 3600`, set-points of occupied (f > 0) or unoccupied hours; then [`step`].
 /// Output: `sensible_kw` the cooling need (≥ 0), `heating_kw` the heating need (≥ 0),
 /// `t_in_c` the air temperature, `latent_kw` from [`latent_w`] in hours when cooling is
-/// available (a finite cooling set-point), else 0. The mass starts from a 720-hour warm-up
+/// available (a finite cooling set-point), else 0, `ventilation_m3_h` the mechanical
+/// ventilation `V̇_vent f` (infiltration excluded; 0 in unoccupied hours). The mass starts from a 720-hour warm-up
 /// over the last 30 days of the year.
 ///
 /// Errors: invalid spec, not 8760 inputs, non-finite or negative input values (key
@@ -854,6 +855,9 @@ pub fn simulate(
             latent_kw: latent / 1000.0,
             heating_kw: r.phi_hc_w.max(0.0) / 1000.0,
             t_in_c: r.t_air_c,
+            // The mechanical ventilation only (schedule fraction × design flow), not the
+            // infiltration: the part of `air_m3_h` an outdoor-air unit can replace.
+            ventilation_m3_h: spec.ventilation_m3_h * f,
         });
     }
     Ok(LoadYear {
@@ -1055,8 +1059,12 @@ mod tests {
         assert!((day.latent_kw * 1000.0 - expect_w).abs() < 1e-6, "{day:?}");
         assert!(day.sensible_kw > 0.0);
         assert!((day.t_in_c - 26.0).abs() < 1e-9);
+        // Mechanical ventilation reaches the route: 1500 m³/h × fraction 1, infiltration
+        // (450 m³/h) not included.
+        assert_eq!(day.ventilation_m3_h, 1500.0);
         // Monday 02:00: cooling off, free-floating, no loads.
         let night = out.hours[2];
+        assert_eq!(night.ventilation_m3_h, 0.0);
         assert_eq!(
             (night.sensible_kw, night.latent_kw, night.heating_kw),
             (0.0, 0.0, 0.0)

@@ -658,6 +658,7 @@ mod tests {
                 latent_kw: 0.0,
                 heating_kw: 0.0,
                 t_in_c: 25.0,
+                ventilation_m3_h: 0.0,
             },
         }
     }

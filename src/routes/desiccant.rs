@@ -14,7 +14,11 @@
 //! (Duffie & Beckman, Solar Engineering of Thermal Processes, 4th ed., the chapter on solar
 //! desiccant cooling; ventilation cycle after Pennington's patent, from memory).
 //!
-//! Control each hour with a cooling load (fans run only then; supply flow fixed):
+//! Control each hour with a cooling load — and, in the ventilation cycle, with mechanical
+//! ventilation in the building model (`LoadHour::ventilation_m3_h > 0`); fans run only then,
+//! supply flow fixed. A ventilation-cycle unit has nothing to do in an hour when the building
+//! takes no outdoor air (unoccupied): it is off and the whole load goes to the backup chiller
+//! (or is reported unmet), reason `not-ventilating`.
 //! 1. The supply humidity ratio the space needs, `W_target = W_room − Q_lat / (m (2501 +
 //!    1.86 t_room))`; the supply temperature the sensible load needs,
 //!    `t_need = t_room − Q_sens / (m c_p)`.
@@ -34,8 +38,32 @@
 //!    the cap and the latent shortfall is unmet.
 //! 5. Delivered cooling from the supply state against the room state (`t_in_c` of the load
 //!    model, `w_room_kg_kg` of the spec), sensible and latent separately, each at most the
-//!    load. What remains goes to the backup electric chiller (`unmet = "backup-chiller"`) or is
-//!    reported unmet (`unmet = "report"`).
+//!    room's need, plus (ventilation cycle) the ventilation load of the outdoor air replaced
+//!    (below). What remains of the building load goes to the backup electric chiller
+//!    (`unmet = "backup-chiller"`) or is reported unmet (`unmet = "report"`).
+//!
+//! Credit balance (sensible and latent each on its own; this project's derivation from the
+//! steady-flow energy balance of the room and of the unit). The building model's load `Q_b`
+//! (≥ 0) contains the load of its mechanical ventilation `V_b` (`LoadHour::ventilation_m3_h`,
+//! outdoor → room state) besides the envelope, internal, occupant and infiltration loads. With
+//! `m = V ρ_std / 3600` and the ventilation load of a dry-air flow `m`,
+//! `L_s(m) = max(0, m c_p (t_out − t_room))`, `L_l(m) = max(0, m (W_out − W_room)(2501 + 1.86
+//! t_room))` (ASHRAE Handbook—Fundamentals 2017 ch. 1 eq. 30 enthalpy, from memory):
+//!
+//! * ventilation cycle: the unit's outdoor air `V_u` replaces `V_r = min(V_u, V_b)` of the
+//!   building's. The room still needs `Q_room = max(0, Q_b − L(m_r))`: the envelope, internal
+//!   and infiltration loads and, when `V_u < V_b`, the load of the outdoor air the unit does not
+//!   replace. The supply delivers `D = m_u (h_room − h_supply)` to the room at the unit's flow.
+//!   Credited cooling `= min(D, Q_room) + (Q_b − Q_room)`: room-side delivery capped at the
+//!   room's need, plus the ventilation load of the replaced outdoor air (never more than
+//!   `Q_b`). The unit itself cools `m_u (h_out − h_supply) = L(m_u) + D`; when `V_u > V_b` the
+//!   surplus outdoor air's load `L(m_u) − L(m_r)` is carried by the unit and never credited (the
+//!   building does not have it). `V_u = V_b` is the rule before the ventilation flow reached
+//!   the route (unit flow = building flow); `V_b = 0` stops the unit (above);
+//! * recirculation cycle: the supply is room air, no outdoor air is replaced:
+//!   `Q_room = Q_b`, credited cooling `= min(D, Q_b)`; it runs in any hour with a load.
+//!
+//! The backup carries `Q_b − credited` (sensible + latent). Hand check: `tests` below.
 //!
 //! Heat request rule: the route asks for the regeneration heat at the regeneration temperature
 //! it needs, whatever the store's top temperature — the boiler lifts the supply (route
@@ -86,11 +114,19 @@ pub enum Unmet {
 fn d_ratio() -> f64 {
     1.0
 }
+/// Default wheel F1/F2 effectivenesses: 0.05 / 0.95, the ideal end of the range a good
+/// silica-gel wheel is given (`components::desiccant_wheel` docs; common practice, from memory).
+/// No published pair measured on a real wheel was found and read (searched: Jurinak 1982,
+/// Banks 1985, Duffie & Beckman's desiccant chapter, Panaras et al.), so this is an ASSUMPTION:
+/// it likely overstates a real wheel's drying. The scenario assumptions say so and the demos
+/// carry F1 0.05–0.20, F2 0.70–0.95 as uncertain inputs.
+pub const DEFAULT_EPS_F1_F2: (f64, f64) = (0.05, 0.95);
+
 fn d_eps_f1() -> f64 {
-    0.05
+    DEFAULT_EPS_F1_F2.0
 }
 fn d_eps_f2() -> f64 {
-    0.95
+    DEFAULT_EPS_F1_F2.1
 }
 fn d_eps_hw() -> f64 {
     0.8
@@ -129,7 +165,7 @@ fn d_w_room() -> f64 {
 #[serde(deny_unknown_fields)]
 pub struct DesiccantSpec {
     /// Supply air volume flow at standard density 1.2 kg/m³, m³/h; fixed (runs in every hour
-    /// with cooling load).
+    /// with cooling load and, in the ventilation cycle, building ventilation; module docs).
     pub supply_flow_m3_h: f64,
     /// `ventilation` (default) or `recirculation`.
     #[serde(default)]
@@ -138,10 +174,12 @@ pub struct DesiccantSpec {
     /// effectivenesses must be those of this ratio).
     #[serde(default = "d_ratio")]
     pub regen_flow_ratio: f64,
-    /// Desiccant wheel F1 effectiveness, 0..1 (default 0.05).
+    /// Desiccant wheel F1 effectiveness, 0..1 (default 0.05: ideal end, an assumption; see
+    /// [`DEFAULT_EPS_F1_F2`]).
     #[serde(default = "d_eps_f1")]
     pub eps_f1: f64,
-    /// Desiccant wheel F2 effectiveness, 0..1 (default 0.95).
+    /// Desiccant wheel F2 effectiveness, 0..1 (default 0.95: ideal end, an assumption; see
+    /// [`DEFAULT_EPS_F1_F2`]).
     #[serde(default = "d_eps_f2")]
     pub eps_f2: f64,
     /// Sensible heat wheel effectiveness, 0..1 (default 0.8).
@@ -325,6 +363,9 @@ pub enum DesiccantReason {
     HeatShort,
     /// Supply not cold enough with the evaporative cooler at its design effectiveness.
     SensibleLimit,
+    /// Ventilation cycle, building not ventilating this hour (unoccupied): unit off; `run`
+    /// gives the whole load to the backup chiller (or reports it unmet).
+    NotVentilating,
 }
 
 impl DesiccantReason {
@@ -338,6 +379,7 @@ impl DesiccantReason {
             DesiccantReason::LatentLimit => "latent-limit",
             DesiccantReason::HeatShort => "heat-short",
             DesiccantReason::SensibleLimit => "sensible-limit",
+            DesiccantReason::NotVentilating => "not-ventilating",
         }
     }
 }
@@ -489,18 +531,37 @@ impl Desiccant {
         self.m_regen_kg_s / STANDARD_AIR_DENSITY_KG_M3
     }
 
-    /// Sensible and latent loads the supply air must meet at the room, kW.
+    /// Dry-air flow of the building's outdoor air the unit replaces this hour, kg/s:
+    /// `min(V_u, V_b) ρ_std / 3600` (ventilation cycle; 0 for recirculation). A non-finite or
+    /// negative building flow counts as none.
+    fn m_replaced_kg_s(&self, c: &HourConditions) -> f64 {
+        match self.spec.cycle {
+            Cycle::Ventilation => {
+                let v_b = c.load.ventilation_m3_h;
+                let v_b = if v_b.is_finite() { v_b.max(0.0) } else { 0.0 };
+                (v_b * STANDARD_AIR_DENSITY_KG_M3 / 3600.0).min(self.m_supply_kg_s)
+            }
+            Cycle::Recirculation => 0.0,
+        }
+    }
+
+    /// Sensible and latent loads the supply air must meet at the room, kW: `Q_room` of the
+    /// module docs.
     ///
     /// The building model counts the load of its outdoor air (outdoor → room state). In the
-    /// ventilation cycle the unit's supply *is* that outdoor air, so the room sees the
-    /// building load less the ventilation load at the unit's flow; the unit is credited with
-    /// both (outdoor → supply). In the recirculation cycle the room sees the building load.
+    /// ventilation cycle the unit's supply replaces `min(V_u, V_b)` of that outdoor air, so the
+    /// room sees the building load less the ventilation load of the replaced flow (and no less
+    /// than zero); the unit is credited with that ventilation load (`account`). In the
+    /// recirculation cycle the room sees the building load.
     fn room_loads(&self, c: &HourConditions) -> (f64, f64) {
         let (q_s, q_l) = (c.load.sensible_kw.max(0.0), c.load.latent_kw.max(0.0));
         match self.spec.cycle {
             Cycle::Ventilation => {
-                let (m, t_room, w_room) =
-                    (self.m_supply_kg_s, c.load.t_in_c, self.spec.w_room_kg_kg);
+                let (m, t_room, w_room) = (
+                    self.m_replaced_kg_s(c),
+                    c.load.t_in_c,
+                    self.spec.w_room_kg_kg,
+                );
                 // Only a load the outdoor air adds is taken off: cooler or drier outdoor air
                 // is already credited inside the building's (clamped, ≥ 0) load.
                 let vs = (m * cp_kj_kgk(c.w_kg_kg) * (c.t_db_c - t_room)).max(0.0);
@@ -727,6 +788,12 @@ impl Desiccant {
         if c.load.cooling_kw() <= 0.0 {
             return Ok(self.off_hour(c));
         }
+        if self.spec.cycle == Cycle::Ventilation && self.m_replaced_kg_s(c) <= 0.0 {
+            return Ok(DesiccantHour {
+                reason: DesiccantReason::NotVentilating,
+                ..self.off_hour(c)
+            });
+        }
         let (q_s, q_l) = self.room_loads(c);
         let x = self.ctx(c)?;
         let (m_p, t_room, w_room) = (self.m_supply_kg_s, c.load.t_in_c, self.spec.w_room_kg_kg);
@@ -811,8 +878,9 @@ impl Desiccant {
         let s = op.supply;
         let cap_s = m_p * cp_kj_kgk(s.w_kg_kg) * (t_room - s.t_c);
         let cap_l = m_p * (w_room - s.w_kg_kg) * (2501.0 + 1.86 * t_room);
-        // Room-side delivery, plus the part of the building's load the unit removed before the
-        // air reached the room (its outdoor air, ventilation cycle): `room_loads`.
+        // Room-side delivery at the unit's flow, capped at the room's need, plus the part of the
+        // building's load the unit removed before the air reached the room: the ventilation load
+        // of the outdoor air it replaces, min(V_u, V_b) (ventilation cycle; `room_loads`).
         let (q_s_b, q_l_b) = (c.load.sensible_kw.max(0.0), c.load.latent_kw.max(0.0));
         let sens = cap_s.min(q_s) + (q_s_b - q_s);
         let lat = cap_l.min(q_l) + (q_l_b - q_l);
@@ -976,6 +1044,10 @@ impl Route for Desiccant {
             Ok(h) => h,
             Err(_) => return self.fallback(c, Reason::NoSolution),
         };
+        if h.reason == DesiccantReason::NotVentilating {
+            // Unit off: the whole load to the backup (or unmet), as when the solve fails.
+            return self.fallback(c, Reason::NotVentilating);
+        }
         if h.reason == DesiccantReason::NoLoad {
             return RouteHour::no_load();
         }
@@ -1015,6 +1087,7 @@ impl Route for Desiccant {
                 }
                 DesiccantReason::HeatShort => Reason::HeatShort,
                 DesiccantReason::SensibleLimit => Reason::SensibleLimit,
+                DesiccantReason::NotVentilating => Reason::NotVentilating,
             },
             water_m3: h.water_kg / 1000.0,
             t_drive_c: h.t_regen_c,
@@ -1038,7 +1111,21 @@ mod tests {
     use crate::components::chiller_electric::Condenser;
     use crate::load::LoadHour;
 
+    /// An hour whose building ventilates at the typical unit's own flow (10 000 m³/h): the
+    /// unit replaces all of the building's outdoor air, the rule before the building's flow
+    /// reached the route.
     pub(crate) fn hour(t_db: f64, w: f64, sens: f64, lat: f64) -> HourConditions {
+        hour_vent(t_db, w, sens, lat, 10_000.0)
+    }
+
+    /// An hour with the building's mechanical ventilation `vent_m3_h`.
+    pub(crate) fn hour_vent(
+        t_db: f64,
+        w: f64,
+        sens: f64,
+        lat: f64,
+        vent_m3_h: f64,
+    ) -> HourConditions {
         HourConditions {
             hour: 4000,
             t_db_c: t_db,
@@ -1050,6 +1137,7 @@ mod tests {
                 latent_kw: lat,
                 heating_kw: 0.0,
                 t_in_c: 26.0,
+                ventilation_m3_h: vent_m3_h,
             },
         }
     }
@@ -1194,6 +1282,122 @@ mod tests {
         .unwrap();
         assert_eq!((t.cycle, t.unmet), (Cycle::Recirculation, Unmet::Report));
         assert!(toml::from_str::<DesiccantSpec>("supply_flow_m3_h = 1.0\ncolour = 1\n").is_err());
+    }
+
+    /// Unoccupied hour (building ventilation 0) with a cooling load of 20 kW sensible + 20 kW
+    /// latent: the ventilation-cycle unit is off — no regeneration heat asked, no unit cooling,
+    /// no fan power — and the backup chiller carries all 40 kWh (hand: 20 + 20), as in an
+    /// hour whose solve fails; with `unmet = "report"` the 40 kWh are unmet and nothing runs.
+    #[test]
+    fn unoccupied_hour_unit_off_backup_carries_all() {
+        let u = unit();
+        let c = hour_vent(30.0, 0.012, 20.0, 20.0, 0.0);
+        let h = u.solve_hour(&c, None).unwrap();
+        assert_eq!(h.reason, DesiccantReason::NotVentilating);
+        assert_eq!((h.sensible_kwh, h.latent_kwh), (0.0, 0.0));
+        assert_eq!((h.regen_heat_kwh, h.unit_electricity_kwh), (0.0, 0.0));
+        assert!(u.heat_request(&c, None).is_none());
+        let r = u.run(&c, None, None);
+        assert_eq!(r.reason, Reason::NotVentilating);
+        assert!((r.cooling_kwh - 40.0).abs() < 1e-9, "{r:?}");
+        assert!((r.backup_cooling_kwh - 40.0).abs() < 1e-9, "{r:?}");
+        assert!(r.cop_thermal.is_none() && r.unmet_kwh == 0.0);
+        // Electricity is the backup chiller's alone (same as the whole-load fallback).
+        assert_eq!(r.electricity_kwh, u.fallback(&c).electricity_kwh);
+        assert!(r.electricity_kwh > 0.0);
+        let mut s = DesiccantSpec::typical(10_000.0);
+        s.unmet = Unmet::Report;
+        let rep = build(&s, &ChillerSpec::typical(Condenser::WaterCooled, 200.0)).unwrap();
+        let r = rep.run(&c, None, None);
+        assert_eq!(r.reason, Reason::NotVentilating);
+        assert_eq!(
+            (r.cooling_kwh, r.unmet_kwh, r.electricity_kwh),
+            (0.0, 40.0, 0.0)
+        );
+        // The recirculation cycle does not need the building's outdoor air: it runs.
+        let mut s = DesiccantSpec::typical(10_000.0);
+        s.cycle = Cycle::Recirculation;
+        let rec = build(&s, &ChillerSpec::typical(Condenser::WaterCooled, 200.0)).unwrap();
+        assert_ne!(
+            rec.solve_hour(&c, None).unwrap().reason,
+            DesiccantReason::NotVentilating
+        );
+    }
+
+    /// Unit flow twice the building's (10 000 vs 5 000 m³/h), 30 °C/12 g/kg outdoors, room
+    /// 26 °C/10.5 g/kg, building load 20 kW sensible + 20 kW latent. The unit replaces only the
+    /// building's 5 000 m³/h: m_b = 5000·1.2/3600 = 1.6667 kg/s, whose latent ventilation load
+    /// is 1.6667·(0.012 − 0.0105)·(2501 + 1.86·26) = 6.3734 kW (not the 12.747 kW of the unit's
+    /// 3.3333 kg/s). The room needs 20 − 6.3734 = 13.6266 kW latent, so the supply target is
+    /// W = 0.0105 − 13.6266/(3.3333·2549.36) = 0.0088965 kg/kg (hand calculation).
+    ///
+    /// With no regeneration heat the wheel stops and the supply keeps the outdoor 12 g/kg (the
+    /// supply cooler never humidifies above the room): the room receives 3.3333·(0.0105 −
+    /// 0.012)·2549.36 = −12.747 kW latent, and the credit is −12.747 + 6.3734 = −6.3734 kW: the
+    /// extra 5 000 m³/h of humid outdoor air is a load the unit brings, never a credit (the old
+    /// rule, crediting the unit's whole flow, gave 0).
+    #[test]
+    fn unit_flow_above_building_credits_building_flow_only() {
+        let u = unit();
+        let m_u = u.m_supply_kg_s;
+        let m_b: f64 = 5000.0 * 1.2 / 3600.0;
+        let h_fg = 2501.0 + 1.86 * 26.0;
+        let vl_b = m_b * (0.012 - 0.0105) * h_fg;
+        assert!((vl_b - 6.3734).abs() < 1e-4);
+        let c = hour_vent(30.0, 0.012, 20.0, 20.0, 5000.0);
+        let h = u.solve_hour(&c, None).unwrap();
+        let w_target = 0.0105 - (20.0 - vl_b) / (m_u * h_fg);
+        assert!((w_target - 0.0088965).abs() < 1e-7);
+        assert!((h.w_supply_kg_kg - w_target).abs() < 1e-6, "{h:?}");
+        // Met: credited latent = room's need (13.6266) + replaced ventilation (6.3734) = 20.
+        assert!((h.latent_kwh - 20.0).abs() < 1e-3, "{h:?}");
+        // The unit dried its whole flow by more than it is credited with.
+        let removed = m_u * (0.012 - h.w_supply_kg_kg) * h_fg;
+        assert!((removed - 26.373).abs() < 1e-2, "{removed}");
+        // No heat: wheel off, latent credit −6.3734 kW, the backup carries the rest.
+        let cold = u.solve_hour(&c, Some(HeatSupplied::default())).unwrap();
+        assert_eq!(cold.t_regen_c, None);
+        assert!((cold.w_supply_kg_kg - 0.012).abs() < 1e-12, "{cold:?}");
+        let lat = m_u * (0.0105 - 0.012) * h_fg + vl_b;
+        assert!((lat + 6.3734).abs() < 1e-3);
+        assert!((cold.latent_kwh - lat).abs() < 1e-9, "{cold:?}");
+        let credited = (cold.sensible_kwh + cold.latent_kwh).max(0.0);
+        assert!(
+            (cold.backup_cooling_kwh + cold.unmet_kwh - (40.0 - credited)).abs() < 1e-9,
+            "{cold:?}"
+        );
+    }
+
+    /// Unit flow equal to the building's: the rule before this change (the unit credited with
+    /// the ventilation load of its own flow) — `humid_hour_meets_latent_target` holds its hand
+    /// calculation. A building flow above the unit's changes nothing (the unit replaces its own
+    /// flow; the rest of the building's outdoor air stays a room load), bit for bit.
+    #[test]
+    fn unit_flow_equal_to_building_is_the_old_rule() {
+        let u = unit();
+        for (t, w, s, l) in [
+            (30.0, 0.012, 20.0, 20.0),
+            (32.0, 0.016, 20.0, 100.0),
+            (40.0, 0.006, 60.0, 2.0),
+        ] {
+            let eq = u
+                .solve_hour(&hour_vent(t, w, s, l, 10_000.0), None)
+                .unwrap();
+            let more = u
+                .solve_hour(&hour_vent(t, w, s, l, 25_000.0), None)
+                .unwrap();
+            // Debug text: the stopped-wheel hours carry NaN water temperatures (NaN ≠ NaN).
+            assert_eq!(format!("{eq:?}"), format!("{more:?}"));
+        }
+        // Same humid hour as `humid_hour_meets_latent_target`: vl at the unit's flow.
+        let m = u.m_supply_kg_s;
+        let vl = m * (0.012 - 0.0105) * (2501.0 + 1.86 * 26.0);
+        assert!((vl - 12.747).abs() < 1e-3);
+        let h = u
+            .solve_hour(&hour_vent(30.0, 0.012, 20.0, 20.0, 10_000.0), None)
+            .unwrap();
+        let w_target = 0.0105 - (20.0 - vl) / (m * (2501.0 + 1.86 * 26.0));
+        assert!((h.w_supply_kg_kg - w_target).abs() < 1e-6, "{h:?}");
     }
 
     /// Recirculation cycle on a humid hour runs and balances.

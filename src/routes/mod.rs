@@ -100,6 +100,10 @@ pub enum Reason {
     HeatShort,
     /// Desiccant: supply air not cold enough with the coolers at design.
     SensibleLimit,
+    /// Desiccant, ventilation cycle: the building has no mechanical ventilation this hour
+    /// (unoccupied), so there is no outdoor air for the unit to treat: unit off, the backup
+    /// chiller (or `unmet`) carried the load.
+    NotVentilating,
     /// Rankine: the engine cannot run at this hour's supply and sink (no operating point);
     /// the backup chiller carried the hour.
     EngineOff,
@@ -121,6 +125,7 @@ impl Reason {
             Reason::LatentLimit => "latent-limit",
             Reason::HeatShort => "heat-short",
             Reason::SensibleLimit => "sensible-limit",
+            Reason::NotVentilating => "not-ventilating",
             Reason::EngineOff => "engine-off",
         }
     }

@@ -55,6 +55,7 @@ mod tests {
                 latent_kw: 0.0,
                 heating_kw: 0.0,
                 t_in_c: 24.0,
+                ventilation_m3_h: 0.0,
             },
         }
     }

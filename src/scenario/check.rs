@@ -40,6 +40,25 @@ pub fn check(s: &Scenario, file: &str) -> Result<()> {
     for (name, o) in &s.options {
         w(option(s, o), &format!("options.{name}"))?;
     }
+    // A ventilation-cycle desiccant unit is credited with the building's outdoor air it
+    // replaces, hour by hour: a load file must say how much that is (no guess, no credit).
+    if let (LoadSource::File, Some(f)) = (s.load.source, &s.load.file)
+        && f.ventilation_column.is_none()
+        && let Some((name, _)) = s.options.iter().find(|(_, o)| {
+            o.desiccant
+                .as_ref()
+                .is_some_and(|d| d.cycle == crate::routes::desiccant::Cycle::Ventilation)
+        })
+    {
+        return Err(Error::Input {
+            file: file.into(),
+            key: "load.file.ventilation_column".into(),
+            value: "(missing)".into(),
+            allowed: format!(
+                "option `{name}` is a desiccant unit with cycle = \"ventilation\", credited with the building's outdoor air it replaces: name the load file's column of mechanical ventilation in m³/h (infiltration excluded), or give the option cycle = \"recirculation\""
+            ),
+        });
+    }
     if let Some(e) = &s.economics {
         w(e.validate(), "economics")?;
     }

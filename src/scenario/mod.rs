@@ -83,6 +83,24 @@ pub fn assumptions(s: &Scenario) -> Vec<String> {
         "Water-cooled plants reject heat through a counterflow tower (effectiveness–NTU); water = evaporation + blow-down.".into(),
     ];
     for (name, o) in &s.options {
+        if let Some(d) = &o.desiccant {
+            let (f1, f2) = crate::routes::desiccant::DEFAULT_EPS_F1_F2;
+            let source = if (d.eps_f1, d.eps_f2) == (f1, f2) {
+                "the defaults, at the ideal end of the range given for silica-gel wheels (from memory, common practice; no published pair measured on a real wheel was read): a real wheel dries less, so the unit's cooling is likely overstated"
+            } else {
+                "scenario values"
+            };
+            let credit = match d.cycle {
+                crate::routes::desiccant::Cycle::Ventilation => {
+                    "; ventilation cycle: credited only with the ventilation load of the building's outdoor air it replaces (min of the unit's and the building's flow), off in hours when the building does not ventilate"
+                }
+                crate::routes::desiccant::Cycle::Recirculation => "",
+            };
+            v.push(format!(
+                "Option {name}: desiccant wheel F1/F2 effectivenesses {}/{} — {source}{credit}.",
+                d.eps_f1, d.eps_f2
+            ));
+        }
         if let Some(d) = o.absorption.as_ref().and_then(|a| a.datasheet.as_ref()) {
             v.push(format!(
                 "Option {name}: the absorption machine is fitted to the performance table {d} (four heat-exchanger UA multipliers and the solution heat-exchanger effectiveness, least squares); `parhelion calibrate` prints the fit row by row."

@@ -29,6 +29,7 @@ fn bench(c: &mut Criterion) {
             latent_kw: 4.0,
             heating_kw: 0.0,
             t_in_c: 25.0,
+            ventilation_m3_h: 0.0,
         },
     };
     // The route memoises the last hour (heat_request and run solve the same hour): each

@@ -23,6 +23,8 @@ fn hour(t_db_c: f64, w_kg_kg: f64, sensible_kw: f64, latent_kw: f64) -> HourCond
             latent_kw,
             heating_kw: 0.0,
             t_in_c: 26.0,
+            // Building ventilation equal to the unit's flow (10 000 m³/h): the unit runs.
+            ventilation_m3_h: 10_000.0,
         },
     }
 }

@@ -37,6 +37,7 @@ fn hour_bench(c: &mut Criterion, name: &str, toml_text: &str, t_base: f64) {
             latent_kw: 10.0,
             heating_kw: 0.0,
             t_in_c: 24.0,
+            ventilation_m3_h: 0.0,
         },
     };
     c.bench_function(name, |b| {
