@@ -103,6 +103,17 @@ pub fn apply(s: &Scenario, ev: &mut Evaluation) -> Result<()> {
         a.peak_electric_kw = f.peak.map(|p| p.kw);
         a.peak_hour = f.peak.map(|p| p.hour as f64);
         a.water_m3_per_mwh_cooling = f.water_m3_per_mwh_cooling;
+        if let Some(ri) = r {
+            let (g, fu, w) = {
+                let ra = &ev.options[ri].annual;
+                (ra.grid_kwh, ra.fuel_kwh, ra.water_m3)
+            };
+            let a = &mut ev.options[i].annual;
+            a.grid_saved_kwh = Some(g - a.grid_kwh);
+            a.fuel_saved_kwh = Some(fu - a.fuel_kwh);
+            a.water_saved_m3 = Some(w - a.water_m3);
+        }
+        let a = &mut ev.options[i].annual;
         if let Some((rf, rmoney)) = reference {
             let sv = energy::savings(f, rf);
             a.primary_energy_savings_fraction = sv.primary_energy_savings;

@@ -18,6 +18,7 @@
 pub mod economics;
 pub mod energy;
 pub mod explore;
+pub mod figures;
 pub mod metrics;
 
 use crate::plant::HourRecord;
@@ -84,6 +85,10 @@ pub struct Totals {
     pub primary_energy_kwh: Option<f64>,
     pub primary_energy_ratio: Option<f64>,
     pub primary_energy_savings_fraction: Option<f64>,
+    /// Against the reference: its grid electricity, fuel and water less the option's.
+    pub grid_saved_kwh: Option<f64>,
+    pub fuel_saved_kwh: Option<f64>,
+    pub water_saved_m3: Option<f64>,
     pub co2_kg: Option<f64>,
     pub co2_savings_fraction: Option<f64>,
     pub peak_electric_kw: Option<f64>,

@@ -1,6 +1,6 @@
 //! Terminal tables (comfy-table), options as rows, units in headers.
 
-use crate::feasibility::{Evaluation, Totals};
+use crate::feasibility::{Evaluation, OptionResult, Totals, figures};
 use comfy_table::{
     Cell, CellAlignment, ContentArrangement, Table,
     presets::{ASCII_MARKDOWN, UTF8_FULL_CONDENSED},
@@ -10,16 +10,6 @@ use std::cell::Cell as StdCell;
 thread_local! {
     /// Markdown tables instead of terminal ones (set for the duration of one render).
     static MARKDOWN: StdCell<bool> = const { StdCell::new(false) };
-}
-
-fn mwh(x: f64) -> String {
-    format!("{:.1}", x / 1000.0)
-}
-fn ratio(x: Option<f64>, digits: usize) -> String {
-    x.map_or("–".into(), |v| format!("{v:.digits$}"))
-}
-fn pct(x: Option<f64>) -> String {
-    x.map_or("–".into(), |v| format!("{:.1}", 100.0 * v))
 }
 
 pub(crate) fn new_table(header: &[&str]) -> Table {
@@ -48,170 +38,178 @@ pub(crate) fn right(t: &mut Table, from: usize) {
     }
 }
 
-/// The feasibility tables of an evaluation: cooling, then solar heat and backup, then the
-/// difference of each option from the reference; the caution last.
-pub fn feasibility(ev: &Evaluation) -> String {
-    let mut cool = new_table(&[
-        "option",
-        "route",
-        "load MWh",
-        "cooling MWh",
-        "electric cooling MWh",
-        "unmet MWh",
-        "unmet h",
-        "electricity MWh",
-        "own PV used MWh",
-        "thermal COP",
-        "SEP",
-        "water m³",
-    ]);
+/// One table of figures from the registry, options as rows; `extra` columns (header,
+/// value of an option) come after the option's name.
+fn figure_table(
+    ev: &Evaluation,
+    title: &str,
+    keys: &[&str],
+    extra: &[(&str, fn(&OptionResult) -> String)],
+) -> String {
+    let figs = figures::of(keys);
+    let mut header = vec!["option".to_string()];
+    header.extend(extra.iter().map(|(h, _)| h.to_string()));
+    header.extend(figs.iter().map(|f| f.header(&ev.currency)));
+    let hr: Vec<&str> = header.iter().map(String::as_str).collect();
+    let mut t = new_table(&hr);
     for o in &ev.options {
-        let a = &o.annual;
-        cool.add_row(vec![
-            o.option.clone(),
-            o.route.to_string(),
-            mwh(a.load_kwh),
-            mwh(a.cooling_kwh),
-            mwh(a.cooling_electric_kwh),
-            mwh(a.unmet_kwh),
-            a.unmet_hours.to_string(),
-            mwh(a.electricity_kwh),
-            mwh(a.pv_used_kwh),
-            ratio(a.cop_thermal, 2),
-            ratio(a.seasonal_electric_performance, 2),
-            format!("{:.0}", a.water_m3),
-        ]);
+        let is_ref = o.option == ev.reference;
+        let mut row = vec![o.option.clone()];
+        row.extend(extra.iter().map(|(_, get)| get(o)));
+        row.extend(figs.iter().map(|f| {
+            let v = (f.get)(&o.annual);
+            // Figures against the reference are blank on the reference's own row.
+            if is_ref && against_reference(f.key) {
+                "–".to_string()
+            } else {
+                f.format(v)
+            }
+        }));
+        t.add_row(row);
     }
-    right(&mut cool, 2);
-    let mut heat = new_table(&[
-        "option",
-        "collector m²",
-        "store m³",
-        "solar heat MWh",
-        "yield kWh/m²",
-        "heat to route MWh",
-        "heat demand MWh",
-        "backup heat MWh",
-        "route SF %",
-        "SF heat demand %",
-        "stagnation h",
-    ]);
-    for o in &ev.options {
-        let a = &o.annual;
-        heat.add_row(vec![
-            o.option.clone(),
+    // Text columns (the option, the route) stay left; numbers go right.
+    let text = 1 + usize::from(extra.first().is_some_and(|(h, _)| *h == "route"));
+    right(&mut t, text);
+    format!("\n{title}\n{t}\n")
+}
+
+/// Figures that compare an option with the reference.
+fn against_reference(key: &str) -> bool {
+    key.ends_with("_saved_kwh")
+        || key.ends_with("_saved_m3")
+        || key.ends_with("savings_fraction")
+        || matches!(
+            key,
+            "peak_reduction_kw"
+                | "npv_vs_reference"
+                | "simple_payback_years"
+                | "discounted_payback_years"
+                | "irr"
+        )
+}
+
+/// The tables of figures, in order: title and the registry keys (terminal, Markdown, HTML).
+pub const TABLES: [(&str, &[&str]); 6] = [
+    (
+        "Key figures (against the reference where saved)",
+        &[
+            "solar_share_of_cooling",
+            "primary_energy_savings_fraction",
+            "grid_saved_kwh",
+            "fuel_saved_kwh",
+            "water_saved_m3",
+            "cop_thermal",
+            "thermal_solar_fraction",
+            "seasonal_electric_performance",
+        ],
+    ),
+    (
+        "Cooling by source over the year",
+        &[
+            "load_kwh",
+            "cooling_kwh",
+            "cooling_solar_kwh",
+            "cooling_backup_heat_kwh",
+            "cooling_evaporative_kwh",
+            "cooling_electric_kwh",
+            "cooling_pv_kwh",
+            "unmet_kwh",
+            "unmet_hours",
+        ],
+    ),
+    (
+        "Electricity by use and water over the year",
+        &[
+            "electricity_kwh",
+            "elec_compressor_kwh",
+            "elec_heat_rejection_kwh",
+            "elec_pumps_kwh",
+            "elec_air_handling_kwh",
+            "pump_kwh",
+            "grid_kwh",
+            "water_m3",
+        ],
+    ),
+    (
+        "Solar heat and backup over the year",
+        &[
+            "solar_heat_kwh",
+            "collector_yield_kwh_m2",
+            "heat_to_route_kwh",
+            "thermal_solar_fraction",
+            "heat_demand_kwh",
+            "solar_fraction_heat_demand",
+            "backup_heat_kwh",
+            "stagnation_hours",
+        ],
+    ),
+    (
+        "Primary energy, emissions and peak",
+        &[
+            "primary_energy_kwh",
+            "primary_energy_ratio",
+            "primary_energy_savings_fraction",
+            "co2_kg",
+            "co2_savings_fraction",
+            "peak_electric_kw",
+            "peak_reduction_kw",
+            "water_m3_per_mwh_cooling",
+        ],
+    ),
+    (
+        "Money (indicative cost functions and prices from the scenario; see README)",
+        &[
+            "capex",
+            "annual_energy_cost",
+            "annualised_cost",
+            "lcoc_per_mwh",
+            "npv_vs_reference",
+            "simple_payback_years",
+            "discounted_payback_years",
+            "irr",
+        ],
+    ),
+];
+
+/// The feasibility tables of an evaluation: the key figures first (solar share of cooling
+/// and primary-energy saving lead), then cooling by source, electricity by use and water,
+/// solar heat and backup, hours by reason code, primary energy and emissions, money, the
+/// ranking; the caution last. Every figure comes from the registry ([`figures::FIGURES`]).
+pub fn feasibility(ev: &Evaluation) -> String {
+    let mut out = format!(
+        "parhelion {} · scenario: {} · reference: {}\nweather: {}\nload: {}\n",
+        env!("CARGO_PKG_VERSION"),
+        ev.scenario,
+        ev.reference,
+        ev.weather_origin,
+        ev.load_origin
+    );
+    let route: (&str, fn(&OptionResult) -> String) = ("route", |o| o.route.to_string());
+    let sizes: [(&str, fn(&OptionResult) -> String); 2] = [
+        ("collector m²", |o| {
             if o.gross_m2 > 0.0 {
                 format!("{:.0}", o.gross_m2)
             } else {
                 "–".into()
-            },
-            o.store_m3.map_or("–".into(), |v| format!("{v:.1}")),
-            mwh(a.solar_heat_kwh),
-            ratio(a.collector_yield_kwh_m2, 0),
-            mwh(a.heat_to_route_kwh),
-            mwh(a.heat_demand_kwh),
-            mwh(a.backup_heat_kwh),
-            pct(a.thermal_solar_fraction),
-            pct(a.solar_fraction_heat_demand),
-            a.stagnation_hours.to_string(),
-        ]);
-    }
-    right(&mut heat, 1);
-    let mut out = format!(
-        "parhelion {} · scenario: {}\nweather: {}\nload: {}\n\nCooling over the year\n{cool}\n\nSolar heat and backup over the year\n{heat}\n",
-        env!("CARGO_PKG_VERSION"),
-        ev.scenario,
-        ev.weather_origin,
-        ev.load_origin
-    );
-    out.push_str(&reason_hours(ev));
-    if let Some(r) = ev.options.iter().find(|o| o.option == ev.reference) {
-        let mut diff = new_table(&[
-            "option",
-            "grid electricity saved MWh",
-            "boiler fuel saved MWh",
-            "primary energy MWh",
-            "PE savings %",
-            "CO2 t",
-            "CO2 savings %",
-            "peak kW",
-            "peak cut kW",
-            "water m³/MWh cooling",
-        ]);
-        for o in &ev.options {
-            let a = &o.annual;
-            diff.add_row(vec![
-                o.option.clone(),
-                mwh(r.annual.grid_kwh - a.grid_kwh),
-                mwh(r.annual.fuel_kwh - a.fuel_kwh),
-                a.primary_energy_kwh.map_or("–".into(), mwh),
-                pct(a.primary_energy_savings_fraction),
-                a.co2_kg
-                    .map_or("–".into(), |v| format!("{:.1}", v / 1000.0)),
-                pct(a.co2_savings_fraction),
-                ratio(a.peak_electric_kw, 0),
-                ratio(a.peak_reduction_kw, 0),
-                ratio(a.water_m3_per_mwh_cooling, 2),
-            ]);
-        }
-        right(&mut diff, 1);
-        out.push_str(&format!(
-            "\nEnergy, emissions and water against the reference `{}`\n{diff}\n",
-            ev.reference
-        ));
-        if ev.options.iter().any(|o| o.annual.capex.is_some()) {
-            let cur = &ev.currency;
-            let h = [
-                "option".to_string(),
-                format!("capital {cur}"),
-                format!("energy bill {cur}/yr"),
-                format!("annualised {cur}/yr"),
-                format!("LCOC {cur}/MWh"),
-                format!("NPV vs ref {cur}"),
-                "payback yr".into(),
-                "disc. payback yr".into(),
-                "IRR %".into(),
-            ];
-            let hr: Vec<&str> = h.iter().map(String::as_str).collect();
-            let mut money = new_table(&hr);
-            let k = |v: Option<f64>| v.map_or("–".into(), |v| format!("{v:.0}"));
-            for o in &ev.options {
-                let a = &o.annual;
-                let is_ref = o.option == ev.reference;
-                money.add_row(vec![
-                    o.option.clone(),
-                    k(a.capex),
-                    k(a.annual_energy_cost),
-                    k(a.annualised_cost),
-                    k(a.lcoc_per_mwh),
-                    if is_ref {
-                        "–".into()
-                    } else {
-                        k(a.npv_vs_reference)
-                    },
-                    if is_ref {
-                        "–".into()
-                    } else {
-                        a.simple_payback_years
-                            .map_or("none".into(), |v| format!("{v:.1}"))
-                    },
-                    if is_ref {
-                        "–".into()
-                    } else {
-                        a.discounted_payback_years
-                            .map_or("none".into(), |v| format!("{v:.1}"))
-                    },
-                    if is_ref {
-                        "–".into()
-                    } else {
-                        a.irr.map_or("none".into(), |v| format!("{:.1}", 100.0 * v))
-                    },
-                ]);
             }
-            right(&mut money, 1);
-            out.push_str(&format!(
-                "\nMoney (indicative cost functions and prices from the scenario; see README)\n{money}\n"
-            ));
+        }),
+        ("store m³", |o| {
+            o.store_m3.map_or("–".into(), |v| format!("{v:.1}"))
+        }),
+    ];
+    let has_money = ev.options.iter().any(|o| o.annual.capex.is_some());
+    for (k, (title, keys)) in TABLES.iter().enumerate() {
+        let extra: &[(&str, fn(&OptionResult) -> String)] = match k {
+            0 => std::slice::from_ref(&route),
+            3 => &sizes,
+            _ => &[],
+        };
+        if k == 5 && !has_money {
+            continue;
+        }
+        out.push_str(&figure_table(ev, title, keys, extra));
+        if k == 3 {
+            out.push_str(&reason_hours(ev));
         }
     }
     out.push_str(&ranking(ev));
@@ -359,31 +357,30 @@ const MONTHS: [&str; 12] = [
     "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
 ];
 
+/// Figures of the monthly table (registry keys).
+pub const MONTHLY: [&str; 9] = [
+    "load_kwh",
+    "cooling_kwh",
+    "cooling_solar_kwh",
+    "cooling_electric_kwh",
+    "electricity_kwh",
+    "solar_heat_kwh",
+    "backup_heat_kwh",
+    "solar_share_of_cooling",
+    "stagnation_hours",
+];
+
 /// Monthly table of one option.
 pub fn monthly(option: &str, months: &[Totals]) -> String {
-    let mut t = new_table(&[
-        "month",
-        "load MWh",
-        "cooling MWh",
-        "electricity MWh",
-        "solar heat MWh",
-        "heat demand MWh",
-        "backup heat MWh",
-        "route SF %",
-        "stagnation h",
-    ]);
+    let figs = figures::of(&MONTHLY);
+    let mut header = vec!["month".to_string()];
+    header.extend(figs.iter().map(|f| f.header("")));
+    let hr: Vec<&str> = header.iter().map(String::as_str).collect();
+    let mut t = new_table(&hr);
     for (i, m) in months.iter().enumerate() {
-        t.add_row(vec![
-            MONTHS[i].to_string(),
-            mwh(m.load_kwh),
-            mwh(m.cooling_kwh),
-            mwh(m.electricity_kwh),
-            mwh(m.solar_heat_kwh),
-            mwh(m.heat_demand_kwh),
-            mwh(m.backup_heat_kwh),
-            pct(m.solar_share_of_cooling),
-            m.stagnation_hours.to_string(),
-        ]);
+        let mut row = vec![MONTHS[i].to_string()];
+        row.extend(figs.iter().map(|f| f.show(m)));
+        t.add_row(row);
     }
     right(&mut t, 1);
     format!("Monthly: {option}\n{t}\n")

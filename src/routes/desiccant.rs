@@ -769,7 +769,18 @@ impl Desiccant {
         c: &HourConditions,
         heat: Option<HeatSupplied>,
     ) -> Result<DesiccantHour> {
-        let wanted = self.solve_capped(c, None)?;
+        self.solve_hour_below(c, heat, None)
+    }
+
+    /// As [`Desiccant::solve_hour`], with the regeneration temperature held at or below
+    /// `t_regen_cap_c` (the store's water can reach no higher: a unit on store heat alone).
+    pub fn solve_hour_below(
+        &self,
+        c: &HourConditions,
+        heat: Option<HeatSupplied>,
+        t_regen_cap_c: Option<f64>,
+    ) -> Result<DesiccantHour> {
+        let wanted = self.solve_capped(c, None, t_regen_cap_c)?;
         match heat {
             None => Ok(wanted),
             Some(h) => {
@@ -777,14 +788,28 @@ impl Desiccant {
                 if got >= wanted.regen_heat_kwh * (1.0 - 1e-9) - 1e-12 {
                     Ok(wanted)
                 } else {
-                    self.solve_capped(c, Some(got))
+                    self.solve_capped(c, Some(got), t_regen_cap_c)
                 }
             }
         }
     }
 
-    /// The control with the regeneration heat capped at `heat_cap_kwh` (`None`: no cap).
-    fn solve_capped(&self, c: &HourConditions, heat_cap_kwh: Option<f64>) -> Result<DesiccantHour> {
+    /// The highest regeneration temperature store water at `t_store_top_c` can give through
+    /// the coil: the top less the valve's control margin and the coil's approach. `None`
+    /// where the boiler lifts the water (no backup chiller) or there is no store.
+    fn t_regen_cap_c(&self, t_store_top_c: Option<f64>) -> Option<f64> {
+        self.backup.as_ref()?;
+        t_store_top_c.map(|t| t - super::SUPPLY_MARGIN_K - self.coil.approach_k)
+    }
+
+    /// The control with the regeneration heat capped at `heat_cap_kwh` and the temperature
+    /// at `t_regen_cap_c` (`None`: no cap).
+    fn solve_capped(
+        &self,
+        c: &HourConditions,
+        heat_cap_kwh: Option<f64>,
+        t_regen_cap_c: Option<f64>,
+    ) -> Result<DesiccantHour> {
         if c.load.cooling_kw() <= 0.0 {
             return Ok(self.off_hour(c));
         }
@@ -811,9 +836,12 @@ impl Desiccant {
             reason = DesiccantReason::WheelOutOfRange;
             (off, None)
         } else {
-            // Cap from the heat supplied.
-            let mut t_hi = self.spec.t_regen_max_c;
-            let capped = heat_cap_kwh.is_some();
+            // Caps from the store's temperature and the heat supplied.
+            let mut t_hi = self
+                .spec
+                .t_regen_max_c
+                .min(t_regen_cap_c.unwrap_or(f64::INFINITY));
+            let capped = heat_cap_kwh.is_some() || t_hi < self.spec.t_regen_max_c;
             if let Some(got) = heat_cap_kwh {
                 t_hi = self
                     .t_regen_for_heat(&x, got, t_hi)?
@@ -1021,7 +1049,9 @@ impl Route for Desiccant {
         if self.backup.is_some() && t_store_top_c.is_none() {
             return None;
         }
-        let h = self.solve_hour(c, None).ok()?;
+        let h = self
+            .solve_hour_below(c, None, self.t_regen_cap_c(t_store_top_c))
+            .ok()?;
         (h.regen_heat_kwh > 0.0).then_some(HeatRequest {
             heat_kwh: h.regen_heat_kwh,
             t_supply_c: h.t_water_supply_c,
@@ -1040,7 +1070,8 @@ impl Route for Desiccant {
     ) -> RouteHour {
         let heat = Some(heat.unwrap_or_default());
         let supplied = heat.map_or(0.0, |q| q.solar_kwh.max(0.0) + q.backup_kwh.max(0.0));
-        let h = match self.solve_hour(c, heat) {
+        let cap = self.t_regen_cap_c(t_store_top_c);
+        let h = match self.solve_hour_below(c, heat, cap) {
             Ok(h) => h,
             Err(_) => return self.fallback(c, Reason::NoSolution),
         };
@@ -1052,13 +1083,17 @@ impl Route for Desiccant {
             return RouteHour::no_load();
         }
         let unit = h.unit_cooling_kwh();
-        // The unit's cooling is heat-driven while its wheel is regenerated; with the wheel
-        // stopped it is evaporative cooling alone, which needs no heat.
-        let (heat_driven, evaporative) = if h.regen_heat_kwh > 0.0 {
-            (unit, 0.0)
+        // What the driving heat made is what the unit delivers beyond what it would deliver
+        // this hour with its wheel stopped (evaporative cooling alone, which needs no heat):
+        // only that increment is heat-driven cooling; the rest is evaporative.
+        let evaporative = if h.regen_heat_kwh > 0.0 {
+            self.solve_hour_below(c, Some(HeatSupplied::default()), cap)
+                .map_or(0.0, |h0| h0.unit_cooling_kwh())
+                .clamp(0.0, unit)
         } else {
-            (0.0, unit)
+            unit
         };
+        let heat_driven = unit - evaporative;
         let mut out = RouteHour {
             cooling: Cooling {
                 heat_driven_kwh: heat_driven,
