@@ -120,10 +120,25 @@ fn html_has_every_section_and_chart_and_no_network() {
     let last = html.rfind(caution).unwrap();
     assert!(first < html.find("id=\"tables\"").unwrap());
     assert!(last > html.find("id=\"checks\"").unwrap());
-    // The tables carry the terminal figures: the reference's cooling 437.8 MWh and the
-    // absorption option's thermal COP 0.72 appear as cells.
-    assert!(html.contains("<td class=\"num\">437.8</td>"));
-    assert!(html.contains("<td class=\"num\">0.72</td>"));
+    // The tables carry the registry's figures as the library computes them: the reference's
+    // cooling and the absorption option's thermal COP and solar share of cooling appear as
+    // cells, formatted by the one formatter.
+    let l = parhelion::scenario::load(&clinic()).unwrap();
+    let ev = parhelion::scenario::build::evaluate(&l).unwrap();
+    let fig = |o: &str, key: &str| {
+        let o = ev.options.iter().find(|x| x.option == o).unwrap();
+        parhelion::feasibility::figures::by_key(key)
+            .unwrap()
+            .show(&o.annual)
+    };
+    for (o, key) in [
+        ("grid-chiller", "cooling_kwh"),
+        ("solar-absorption", "cop_thermal"),
+        ("solar-absorption", "solar_share_of_cooling"),
+    ] {
+        let cell = format!("<td class=\"num\">{}</td>", fig(o, key));
+        assert!(html.contains(&cell), "{o} {key}: no cell {cell}");
+    }
     assert!(html.contains("@media print"));
     assert!(html.contains("table-layout:fixed"));
     // Money bars and the heat-map caption name what they show.

@@ -28,7 +28,7 @@ pub const SECTIONS: [&str; 8] = [
 /// Chart ids, in order.
 pub const CHARTS: [&str; 5] = [
     "chart-monthly-cooling",
-    "chart-monthly-solar-fraction",
+    "chart-monthly-solar-share",
     "chart-heat-map",
     "chart-annual-cost-energy",
     "chart-cash-flow",
@@ -274,8 +274,11 @@ fn chart_monthly_cooling(ev: &Evaluation) -> String {
     legend(
         &mut s,
         &[
-            (PALETTE[0], "by the option's own route".into()),
-            (PALETTE[1], "by the backup electric chiller".into()),
+            (PALETTE[0], "from solar heat".into()),
+            (PALETTE[2], "from backup heat".into()),
+            (PALETTE[3], "evaporative".into()),
+            (PALETTE[4], "on own PV".into()),
+            (PALETTE[1], "electric (grid)".into()),
             (PALETTE[5], "unmet".into()),
         ],
         60.0,
@@ -295,12 +298,15 @@ fn chart_monthly_cooling(ev: &Evaluation) -> String {
         y_axis(&mut s, &ax, x0, x1, y0, y1, "MWh");
         let bw = (x1 - x0) / 12.0;
         for (m, t) in o.monthly.iter().enumerate() {
-            let own = (t.cooling_solar_kwh + t.cooling_backup_heat_kwh) / 1000.0;
             let parts = [
-                (own, PALETTE[0]),
-                (t.cooling_electric_kwh.max(0.0) / 1000.0, PALETTE[1]),
-                (t.unmet_kwh.max(0.0) / 1000.0, PALETTE[5]),
-            ];
+                (t.cooling_solar_kwh, PALETTE[0]),
+                (t.cooling_backup_heat_kwh, PALETTE[2]),
+                (t.cooling_evaporative_kwh, PALETTE[3]),
+                (t.cooling_pv_kwh, PALETTE[4]),
+                (t.cooling_electric_kwh, PALETTE[1]),
+                (t.unmet_kwh, PALETTE[5]),
+            ]
+            .map(|(v, c)| (v.max(0.0) / 1000.0, c));
             let x = x0 + m as f64 * bw + 0.15 * bw;
             let mut base = 0.0;
             for (v, c) in parts {
@@ -330,7 +336,7 @@ fn chart_monthly_cooling(ev: &Evaluation) -> String {
     s
 }
 
-/// (2) Monthly solar fraction per option with a collector field (lines).
+/// (2) Monthly solar share of cooling per option with a collector field or own PV (lines).
 fn chart_monthly_solar_fraction(ev: &Evaluation) -> String {
     let h = 330.0;
     let (x0, x1, y0, y1) = (70.0, W - 220.0, 30.0, h - 40.0);
@@ -339,7 +345,7 @@ fn chart_monthly_solar_fraction(ev: &Evaluation) -> String {
         hi: 100.0,
         step: 20.0,
     };
-    let mut s = svg_open(CHARTS[1], h, "monthly solar fraction per option");
+    let mut s = svg_open(CHARTS[1], h, "monthly solar share of cooling per option");
     y_axis(&mut s, &ax, x0, x1, y0, y1, "%");
     let dx = (x1 - x0) / 12.0;
     for (m, name) in MONTHS.iter().enumerate() {
@@ -355,7 +361,7 @@ fn chart_monthly_solar_fraction(ev: &Evaluation) -> String {
         .options
         .iter()
         .enumerate()
-        .filter(|(_, o)| o.gross_m2 > 0.0)
+        .filter(|(_, o)| o.annual.solar_share_of_cooling.is_some_and(|f| f > 0.0))
     {
         // Colours by the option's position in the evaluation, as in charts 4 and 5.
         let c = PALETTE[idx % PALETTE.len()];
@@ -523,7 +529,7 @@ fn chart_heat_map(s: &Scenario, ev: &Evaluation) -> (String, String) {
     let what = if store {
         "mean store temperature at the end of each hour, °C"
     } else {
-        "cooling delivered by the route itself (backup chiller excluded) in each hour, kWh"
+        "cooling the heat-driven machine made (from solar and backup heat) in each hour, kWh"
     };
     let caption = format!(
         "Heat map of option <code>{}</code> ({}), the first heat-driven option: {what}; \
@@ -913,15 +919,15 @@ pub fn render(ev: &Evaluation, s: &Scenario, checks: &[Check]) -> Result<String>
     figure(
         &mut h,
         &chart_monthly_cooling(ev),
-        "(1) Monthly cooling delivered, MWh, by source: by the option's own route (for an \
-         electric option, its chiller), by the backup electric chiller, and unmet load. Same \
-         scale in every panel.",
+        "(1) Monthly cooling delivered, MWh, by source: by the heat-driven machine from solar \
+         heat and from backup heat, by evaporation alone, by an electric compressor on own PV \
+         and on the grid, and unmet load. Same scale in every panel.",
     );
     figure(
         &mut h,
         &chart_monthly_solar_fraction(ev),
-        "(2) Monthly solar fraction, %: solar heat used / all driving heat used (route and heat \
-         demand), for the options with a collector field; a gap is a month without heat use.",
+        "(2) Monthly solar share of cooling, %: cooling made from solar heat or own PV / cooling \
+         load, for the options that have one; a gap is a month without cooling load.",
     );
     figure(&mut h, &heat_svg, &format!("(3) {heat_caption}"));
     figure(

@@ -38,14 +38,12 @@ pub(crate) fn right(t: &mut Table, from: usize) {
     }
 }
 
+/// A column that is not a figure: header and the option's value.
+type Extra = (&'static str, fn(&OptionResult) -> String);
+
 /// One table of figures from the registry, options as rows; `extra` columns (header,
 /// value of an option) come after the option's name.
-fn figure_table(
-    ev: &Evaluation,
-    title: &str,
-    keys: &[&str],
-    extra: &[(&str, fn(&OptionResult) -> String)],
-) -> String {
+fn figure_table(ev: &Evaluation, title: &str, keys: &[&str], extra: &[Extra]) -> String {
     let figs = figures::of(keys);
     let mut header = vec!["option".to_string()];
     header.extend(extra.iter().map(|(h, _)| h.to_string()));
@@ -184,8 +182,8 @@ pub fn feasibility(ev: &Evaluation) -> String {
         ev.weather_origin,
         ev.load_origin
     );
-    let route: (&str, fn(&OptionResult) -> String) = ("route", |o| o.route.to_string());
-    let sizes: [(&str, fn(&OptionResult) -> String); 2] = [
+    let route: Extra = ("route", |o| o.route.to_string());
+    let sizes: [Extra; 2] = [
         ("collector m²", |o| {
             if o.gross_m2 > 0.0 {
                 format!("{:.0}", o.gross_m2)
@@ -199,7 +197,7 @@ pub fn feasibility(ev: &Evaluation) -> String {
     ];
     let has_money = ev.options.iter().any(|o| o.annual.capex.is_some());
     for (k, (title, keys)) in TABLES.iter().enumerate() {
-        let extra: &[(&str, fn(&OptionResult) -> String)] = match k {
+        let extra: &[Extra] = match k {
             0 => std::slice::from_ref(&route),
             3 => &sizes,
             _ => &[],

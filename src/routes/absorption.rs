@@ -559,7 +559,7 @@ impl Route for Absorption {
         heat: Option<HeatSupplied>,
     ) -> RouteHour {
         let load = c.load.cooling_kw();
-        if !(load > 0.0) {
+        if load.is_nan() || load <= 0.0 {
             return RouteHour::no_load();
         }
         // The same solve as the request (same store temperature); the heat actually supplied

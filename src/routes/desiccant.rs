@@ -1208,7 +1208,7 @@ mod tests {
         assert_eq!(h.reason, DesiccantReason::Ok);
         assert!(h.energy_balance_rel < 1e-9 && h.water_balance_rel < 1e-9);
         let r = u
-            .heat_request(&hour(30.0, 0.012, 20.0, 20.0), Some(40.0))
+            .heat_request(&hour(30.0, 0.012, 20.0, 20.0), Some(90.0))
             .unwrap();
         assert!((r.heat_kwh - h.regen_heat_kwh).abs() < 1e-12);
         assert!((r.t_supply_c - (t + 5.0)).abs() < 1e-12 && r.t_return_c < r.t_supply_c);
@@ -1225,16 +1225,30 @@ mod tests {
         assert_eq!(h.reason, DesiccantReason::LatentLimit, "{h:?}");
         assert_eq!(h.t_regen_c, Some(75.0));
         assert!(h.backup_cooling_kwh > 0.0 && h.unmet_kwh < 1e-9);
-        // A store at 80 °C (the plant passes its top while the unit is enabled).
+        // A store at 90 °C (the plant passes its top while the unit is enabled): hot enough
+        // for the highest regeneration temperature through the coil (90 − 2 − 5 ≥ 75 °C).
         let rh = u.run(
             &c,
-            Some(80.0),
-            u.heat_request(&c, Some(80.0)).map(|r| HeatSupplied {
+            Some(90.0),
+            u.heat_request(&c, Some(90.0)).map(|r| HeatSupplied {
                 solar_kwh: r.heat_kwh,
                 backup_kwh: 0.0,
             }),
         );
         assert!((rh.cooling_kwh() - 120.0).abs() < 1e-9 && rh.reason == Reason::LatentLimit);
+        // A store at 78 °C caps regeneration at 71 °C: the wheel dries less, and the hour is
+        // short of driving temperature.
+        let capped = u.run(
+            &c,
+            Some(78.0),
+            u.heat_request(&c, Some(78.0)).map(|r| HeatSupplied {
+                solar_kwh: r.heat_kwh,
+                backup_kwh: 0.0,
+            }),
+        );
+        assert_eq!(capped.reason, Reason::HeatShort);
+        assert_eq!(capped.t_drive_c, Some(71.0));
+        assert!(capped.cooling.heat_driven_kwh < rh.cooling.heat_driven_kwh);
     }
 
     /// Outdoor air drier than the supply target: wheel stopped, no heat asked, evaporative
@@ -1334,19 +1348,22 @@ mod tests {
         assert!(u.heat_request(&c, None).is_none());
         let r = u.run(&c, None, None);
         assert_eq!(r.reason, Reason::NotVentilating);
-        assert!((r.cooling_kwh - 40.0).abs() < 1e-9, "{r:?}");
-        assert!((r.backup_cooling_kwh - 40.0).abs() < 1e-9, "{r:?}");
-        assert!(r.cop_thermal.is_none() && r.unmet_kwh == 0.0);
+        assert!((r.cooling_kwh() - 40.0).abs() < 1e-9, "{r:?}");
+        assert!((r.cooling.electric_kwh - 40.0).abs() < 1e-9, "{r:?}");
+        assert!(r.cooling.heat_driven_kwh == 0.0 && r.unmet_kwh == 0.0);
         // Electricity is the backup chiller's alone (same as the whole-load fallback).
-        assert_eq!(r.electricity_kwh, u.fallback(&c).electricity_kwh);
-        assert!(r.electricity_kwh > 0.0);
+        assert_eq!(
+            r.electricity_kwh(),
+            u.fallback(&c, Reason::NoSolution).electricity_kwh()
+        );
+        assert!(r.electricity_kwh() > 0.0);
         let mut s = DesiccantSpec::typical(10_000.0);
         s.unmet = Unmet::Report;
         let rep = build(&s, &ChillerSpec::typical(Condenser::WaterCooled, 200.0)).unwrap();
         let r = rep.run(&c, None, None);
         assert_eq!(r.reason, Reason::NotVentilating);
         assert_eq!(
-            (r.cooling_kwh, r.unmet_kwh, r.electricity_kwh),
+            (r.cooling_kwh(), r.unmet_kwh, r.electricity_kwh()),
             (0.0, 40.0, 0.0)
         );
         // The recirculation cycle does not need the building's outdoor air: it runs.

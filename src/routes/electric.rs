@@ -35,7 +35,7 @@ impl Route for Electric {
 
     fn run(&self, c: &HourConditions, _t: Option<f64>, _heat: Option<HeatSupplied>) -> RouteHour {
         let load = c.load.cooling_kw();
-        if !(load > 0.0) {
+        if load.is_nan() || load <= 0.0 {
             return RouteHour::no_load();
         }
         let h = self.plant.serve(c, load);
