@@ -390,6 +390,39 @@ mod tests {
         }
     }
 
+    /// README's table of figures is written from the registry: every key with its label,
+    /// shown unit and definition (`cargo test --lib figures -- --ignored --nocapture` prints
+    /// the table to paste).
+    #[test]
+    #[ignore]
+    fn print_readme_table() {
+        println!("| key | label | shown in | definition |");
+        println!("|---|---|---|---|");
+        for f in FIGURES {
+            let u = f.unit.shown("currency");
+            println!(
+                "| `{}` | {} | {} | {} |",
+                f.key,
+                f.label,
+                if u.is_empty() { "–".into() } else { u },
+                f.definition
+            );
+        }
+    }
+
+    /// README lists every figure of the registry by its key.
+    #[test]
+    fn readme_lists_every_figure() {
+        let readme = include_str!("../../README.md");
+        for f in FIGURES {
+            assert!(
+                readme.contains(&format!("| `{}` |", f.key)),
+                "README's table of figures lacks `{}`",
+                f.key
+            );
+        }
+    }
+
     #[test]
     fn formatter() {
         let f = by_key("cooling_kwh").unwrap();
