@@ -9,6 +9,7 @@
 //! store could not give, the boiler gives. Every hour records the store's balance
 //! `in − out − losses − Δstored` as its closure error.
 
+pub mod field_node;
 pub mod record;
 pub mod store;
 
@@ -22,9 +23,9 @@ use crate::scenario::schema::HeatPriority;
 use crate::sun::sky::PlaneIrradiance;
 use store::{MAX_STREAMS, Store, charge, draw};
 
-/// Sub-steps per hour of the plant loop.
+/// Sub-steps per hour of the plant loop (fixed; `YearInputs::substeps` may set another number
+/// to test that results do not depend on it).
 pub const SUBSTEPS: usize = 4;
-const DT_S: f64 = 3600.0 / SUBSTEPS as f64;
 const J_PER_KWH: f64 = 3.6e6;
 
 /// The building's heat demand in one hour (served by the store where the option says so).
@@ -57,6 +58,9 @@ pub struct SolarLoop {
     pub hx_effectiveness: Option<f64>,
     /// Pump electric power while running, W.
     pub pump_w: f64,
+    /// Heat capacity of the field (collectors' effective capacity, their fluid and the loop's
+    /// pipes), J/K ([`field_node`]); 0 for the steady-state loop.
+    pub field_capacity_j_k: f64,
     pub dt_on_k: f64,
     pub dt_off_k: f64,
     /// Collection stops at this store-top temperature, °C.
@@ -86,6 +90,8 @@ pub struct YearInputs<'a> {
     pub ghi_w_m2: &'a [f64],
     pub heat_demand: &'a [HeatDemandHour],
     pub priority: HeatPriority,
+    /// Sub-steps per hour ([`SUBSTEPS`]).
+    pub substeps: usize,
 }
 
 /// A planned draw on the store for one sub-step.
@@ -130,7 +136,14 @@ fn plan_draw(
 /// Run one option over the year; one record per hour.
 pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
     let mut solar = opt.solar.clone();
+    let substeps = y.substeps.max(1);
+    let dt_s = 3600.0 / substeps as f64;
     let mut pump_on = false;
+    // The field's heat capacity: one node, starting at the first hour's air temperature.
+    let mut node = field_node::FieldNode {
+        t_c: y.conditions.first().map_or(20.0, |c| c.t_db_c),
+        capacity_j_k: solar.as_ref().map_or(0.0, |s| s.field_capacity_j_k),
+    };
     // The heat-driven machine's cut-in control (hysteresis on the store's top).
     let mut enabled = false;
     let mut out = Vec::with_capacity(y.conditions.len());
@@ -174,7 +187,13 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             let mut q_collected_j = 0.0;
             let mut q_loss_j = 0.0;
             let mut q_in_sum_j = 0.0;
-            for _ in 0..SUBSTEPS {
+            let sky = field_node::Sky {
+                beam_w_m2: poa.beam_w_m2,
+                diffuse_w_m2: poa.diffuse_w_m2(),
+                aoi_deg: poa.aoi_deg,
+                t_amb_c: c.t_db_c,
+            };
+            for _ in 0..substeps {
                 let (t_top, t_bot) = (s.store.t_top_c(), s.store.t_bottom_c());
                 // Collector loop: differential thermostat with dead-band, store maximum.
                 let mut streams = [Stream {
@@ -183,13 +202,22 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     inlet: crate::components::tank::Inlet::Top,
                 }; MAX_STREAMS];
                 let mut n = 1;
-                let gain_possible = rec.poa_w_m2 > 0.0
-                    && s.field.no_flow_temp_c(
+                // The thermostat's collector sensor: the field node's temperature while the
+                // pump is stopped (the no-flow steady temperature when the field has no heat
+                // capacity to remember).
+                let t_sensor = if node.capacity_j_k > 0.0 {
+                    node.t_c
+                } else {
+                    s.field.no_flow_temp_c(
                         poa.beam_w_m2,
                         poa.diffuse_w_m2(),
                         poa.aoi_deg,
                         c.t_db_c,
-                    ) > t_bot + s.dt_on_k;
+                    )
+                };
+                let gain_possible = (rec.poa_w_m2 > 0.0 || node.capacity_j_k > 0.0)
+                    && t_sensor > t_bot + s.dt_on_k;
+                let mut started = false;
                 if t_top >= s.t_max_c {
                     if gain_possible {
                         rec.stagnation = true;
@@ -197,15 +225,35 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     pump_on = false;
                 } else if !pump_on && gain_possible {
                     pump_on = true;
+                    started = true;
                 }
+                let mut ran = false;
                 if pump_on {
-                    let (flow, t_to_store) = collector_loop(s, &poa, t_bot, c.t_db_c);
-                    if t_to_store - t_bot < s.dt_off_k {
-                        pump_on = false;
+                    let lp = collector_loop(s, &poa, t_bot, c.t_db_c);
+                    // What the field's stored heat adds to (or takes from) the stream.
+                    let mut trial = node;
+                    let release_j = trial.run(lp.t_field_mean_c, lp.mcp_loop_w_k, dt_s);
+                    let t_to_store = if lp.flow_kg_s > 0.0 {
+                        lp.t_to_store_c + release_j / (dt_s * lp.flow_kg_s * s.cp_j_kgk)
                     } else {
-                        streams[0] = charge(flow, t_to_store);
-                        rec.pump_hours += 1.0 / SUBSTEPS as f64;
+                        lp.t_to_store_c
+                    };
+                    let rise = t_to_store - t_bot;
+                    // The dead-band stops the pump when the rise falls below `dt_off_k`; a
+                    // pump that has just started runs its first sub-step (the sensor saw a
+                    // gain) and stops after it if the rise is not kept.
+                    if rise >= s.dt_off_k || (started && rise > 0.0) {
+                        streams[0] = charge(lp.flow_kg_s, t_to_store);
+                        rec.pump_hours += 1.0 / substeps as f64;
+                        node = trial;
+                        ran = true;
                     }
+                    if rise < s.dt_off_k {
+                        pump_on = false;
+                    }
+                }
+                if !ran {
+                    node.idle(&s.field, &sky, dt_s);
                 }
                 // Draws: the route's, then hot water, then space heating, in priority order.
                 let mut draws = [Draw::default(); 3];
@@ -258,9 +306,9 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 }
                 // Heat each draw was planned to take this sub-step, J.
                 let planned_j = [request.map_or(0.0, |r| r.heat_kwh), hd.dhw_kwh, hd.sh_kwh]
-                    .map(|kwh| kwh * 1000.0 * DT_S);
+                    .map(|kwh| kwh * 1000.0 * dt_s);
                 let before = (draws.iter().any(|d| d.flow_kg_s > 0.0)).then(|| s.store.clone());
-                let mut r = s.store.step(DT_S, &streams[..n], s.t_room_c, s.cp_j_kgk);
+                let mut r = s.store.step(dt_s, &streams[..n], s.t_room_c, s.cp_j_kgk);
                 // A draw planned at the sub-step's starting top temperature takes more than
                 // planned when the top warms during the step (the collector charging it); the
                 // mixing valve would throttle, so the step is taken again from the same state
@@ -282,7 +330,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                             break;
                         }
                         s.store = before.clone();
-                        r = s.store.step(DT_S, &streams[..n], s.t_room_c, s.cp_j_kgk);
+                        r = s.store.step(dt_s, &streams[..n], s.t_room_c, s.cp_j_kgk);
                     }
                 }
                 q_collected_j += r.q_in_j[0];
@@ -388,6 +436,18 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
     out
 }
 
+/// The collector loop's steady state with the pump running.
+#[derive(Debug, Clone, Copy)]
+struct LoopState {
+    /// Store-side flow, kg/s, and the temperature it brings to the store, °C.
+    flow_kg_s: f64,
+    t_to_store_c: f64,
+    /// The field's mean temperature (collector inlet and outlet), °C.
+    t_field_mean_c: f64,
+    /// The collector loop's capacity rate, W/K.
+    mcp_loop_w_k: f64,
+}
+
 /// Collector loop with the pump running: mass flow and the temperature it brings to the
 /// store. For an indirect loop with equal capacity rates on both sides of an exchanger of
 /// effectiveness ε, the collector inlet is `t_co − ε (t_co − t_store)` and the store receives
@@ -398,7 +458,7 @@ fn collector_loop(
     poa: &PlaneIrradiance,
     t_store_c: f64,
     t_amb_c: f64,
-) -> (f64, f64) {
+) -> LoopState {
     let run = |t_in: f64| {
         s.field.run(
             t_in,
@@ -411,7 +471,12 @@ fn collector_loop(
     match s.hx_effectiveness {
         None => {
             let o = run(t_store_c);
-            (o.flow_kg_s, o.t_out_c)
+            LoopState {
+                flow_kg_s: o.flow_kg_s,
+                t_to_store_c: o.t_out_c,
+                t_field_mean_c: 0.5 * (t_store_c + o.t_out_c),
+                mcp_loop_w_k: o.flow_kg_s * s.field.cp_j_kgk,
+            }
         }
         Some(eff) => {
             let mut t_ci = t_store_c;
@@ -426,10 +491,12 @@ fn collector_loop(
             }
             // The store side runs at the same capacity rate: its water flow is the loop's
             // scaled by the ratio of specific heats.
-            (
-                o.flow_kg_s * s.cp_loop_j_kgk / s.cp_j_kgk,
-                t_store_c + eff * (o.t_out_c - t_store_c),
-            )
+            LoopState {
+                flow_kg_s: o.flow_kg_s * s.cp_loop_j_kgk / s.cp_j_kgk,
+                t_to_store_c: t_store_c + eff * (o.t_out_c - t_store_c),
+                t_field_mean_c: 0.5 * (t_ci + o.t_out_c),
+                mcp_loop_w_k: o.flow_kg_s * s.cp_loop_j_kgk,
+            }
         }
     }
 }

@@ -555,9 +555,19 @@ fn solar_loop(
     };
     let poa = plane_year(p, f.tracking, fixed, f.sky_model, s.site.ground_albedo);
     let gross = field.gross_m2();
+    // The field's heat capacity: the collectors' effective capacity (ISO 9806 c5, or the
+    // class default) on their area basis, plus the pipes and their fluid.
+    let c_collectors = 1000.0
+        * field
+            .collector
+            .heat_capacity_kj_m2k
+            .unwrap_or_else(|| crate::plant::field_node::default_capacity_kj_m2k(field.collector.kind))
+        * field.area_m2();
+    let field_capacity_j_k = c_collectors + f.pipe_heat_capacity_j_mk * f.pipe_length_m;
     Ok((
         SolarLoop {
             pump_w: f.pump_w_m2 * gross,
+            field_capacity_j_k,
             field,
             poa,
             hx_effectiveness: f.hx_effectiveness,
@@ -581,6 +591,7 @@ pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Result<Evaluation
         ghi_w_m2: &p.ghi_w_m2,
         heat_demand: &p.heat_demand,
         priority: l.scenario.heat_priority,
+        substeps: crate::plant::SUBSTEPS,
     };
     let options = built
         .iter()

@@ -546,6 +546,13 @@ fn field(s: &Scenario, f: &FieldSection) -> Result<()> {
         f.dt_on_k,
         "pump stop temperature difference, K, below dt_on_k",
     )?;
+    in_range(
+        "pipe_heat_capacity_j_mk",
+        f.pipe_heat_capacity_j_mk,
+        0.0,
+        50_000.0,
+        "heat capacity of the loop's pipes and fluid per metre, J/(m·K)",
+    )?;
     let _ = c;
     Ok(())
 }

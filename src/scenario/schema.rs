@@ -329,14 +329,19 @@ pub struct FieldSection {
     pub pipe_length_m: f64,
     #[serde(default = "default_pipe_loss")]
     pub pipe_loss_w_mk: f64,
+    /// Heat capacity of the loop's pipes and their fluid per metre, J/(m·K) (default 2300: a
+    /// water-filled DN 25 copper pipe).
+    #[serde(default = "default_pipe_capacity")]
+    pub pipe_heat_capacity_j_mk: f64,
     /// Effectiveness of the collector-loop heat exchanger (indirect loop); omit for a
     /// direct loop.
     pub hx_effectiveness: Option<f64>,
     /// Collector-loop pump electric power per m² of collector while running, W/m².
     #[serde(default = "default_pump")]
     pub pump_w_m2: f64,
-    /// Differential thermostat: start when collector no-flow temperature exceeds the store
-    /// bottom by `dt_on_k`, stop when the outlet gain falls below `dt_off_k`.
+    /// Differential thermostat: start when the collector sensor (the field's temperature
+    /// while stopped) exceeds the store bottom by `dt_on_k`, stop when the outlet gain falls
+    /// below `dt_off_k`.
     #[serde(default = "default_dt_on")]
     pub dt_on_k: f64,
     #[serde(default = "default_dt_off")]
@@ -345,6 +350,9 @@ pub struct FieldSection {
 
 fn one() -> u32 {
     1
+}
+fn default_pipe_capacity() -> f64 {
+    crate::plant::field_node::DEFAULT_PIPE_CAPACITY_J_MK
 }
 fn south() -> f64 {
     180.0
