@@ -49,6 +49,10 @@ pub struct FieldNode {
     pub t_c: f64,
     /// Heat capacity of collectors, fluid and pipes, J/K.
     pub capacity_j_k: f64,
+    /// Highest temperature the stopped field is held at, °C: the loop's stagnation
+    /// protection (a concentrating field defocuses, a glazed loop drains back or vents) keeps
+    /// the fluid at or below the store's collection limit; the heat above it is dumped.
+    pub t_max_c: f64,
 }
 
 /// The hour's plane irradiance and air seen by the field.
@@ -67,6 +71,33 @@ impl FieldNode {
         if self.capacity_j_k <= 0.0 {
             return 0.0;
         }
+        let (d_eq, k) = self.idle_law(field, sky);
+        let d0 = self.t_c - sky.t_amb_c;
+        let d1 = d_eq + (d0 - d_eq) * (-k * dt_s).exp();
+        let before = self.t_c;
+        self.t_c = (sky.t_amb_c + d1).min(self.t_max_c.max(before));
+        self.capacity_j_k * (self.t_c - before)
+    }
+
+    /// Time, s, until the stopped field's node reaches `t_target_c` on the trajectory of
+    /// [`FieldNode::idle`] (`None` if it does not: the target is not between the node and its
+    /// no-flow equilibrium). Zero when the node is already there.
+    pub fn idle_time_to(&self, field: &Field, sky: &Sky, t_target_c: f64) -> Option<f64> {
+        if self.t_c >= t_target_c {
+            return Some(0.0);
+        }
+        if self.capacity_j_k <= 0.0 {
+            return None;
+        }
+        let (d_eq, k) = self.idle_law(field, sky);
+        let d0 = self.t_c - sky.t_amb_c;
+        let dt = t_target_c - sky.t_amb_c;
+        // Warming towards an equilibrium above the target.
+        (d_eq > dt && k > 0.0).then(|| ((d0 - d_eq) / (dt - d_eq)).ln() / k)
+    }
+
+    /// The no-flow equilibrium above air, K, and the relaxation rate from the node, 1/s.
+    fn idle_law(&self, field: &Field, sky: &Sky) -> (f64, f64) {
         let c = &field.collector;
         let area = field.area_m2();
         let s = c
@@ -90,11 +121,7 @@ impl FieldNode {
         } else {
             b + 2.0 * a2 * d_eq.abs()
         };
-        let k = area * slope.max(0.0) / self.capacity_j_k;
-        let d1 = d_eq + (d0 - d_eq) * (-k * dt_s).exp();
-        let before = self.t_c;
-        self.t_c = sky.t_amb_c + d1;
-        self.capacity_j_k * (self.t_c - before)
+        (d_eq, area * slope.max(0.0) / self.capacity_j_k)
     }
 
     /// The pump runs for `dt_s` with the field's steady mean temperature `t_ss_c` and the
@@ -156,13 +183,18 @@ mod tests {
             let mut n = FieldNode {
                 t_c: 25.0,
                 capacity_j_k: cap,
+                t_max_c: f64::INFINITY,
             };
             let mut stored = 0.0;
             for _ in 0..steps {
                 stored += n.idle(&f, &sky, 1800.0 / steps as f64);
             }
             let expect = 25.0 + s / a1 * (1.0 - (-area * a1 * 1800.0 / cap).exp());
-            assert!((n.t_c - expect).abs() < 1e-9, "{steps}: {} vs {expect}", n.t_c);
+            assert!(
+                (n.t_c - expect).abs() < 1e-9,
+                "{steps}: {} vs {expect}",
+                n.t_c
+            );
             assert!((stored - cap * (n.t_c - 25.0)).abs() < 1e-6);
         }
     }
@@ -183,6 +215,7 @@ mod tests {
             let mut n = FieldNode {
                 t_c: t0,
                 capacity_j_k: 7000.0 * f.area_m2(),
+                t_max_c: f64::INFINITY,
             };
             for _ in 0..200 {
                 n.idle(&f, &sky, 900.0);
@@ -199,6 +232,7 @@ mod tests {
         let mut a = FieldNode {
             t_c: 90.0,
             capacity_j_k: cap,
+            t_max_c: f64::INFINITY,
         };
         let mut b = a;
         let q = a.run(60.0, 800.0, 900.0);
@@ -211,6 +245,7 @@ mod tests {
         let mut z = FieldNode {
             t_c: 90.0,
             capacity_j_k: 0.0,
+            t_max_c: f64::INFINITY,
         };
         assert_eq!(z.run(60.0, 800.0, 900.0), 0.0);
         assert_eq!(z.t_c, 60.0);

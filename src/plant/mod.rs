@@ -1,7 +1,7 @@
 //! The hour loop: couples each option's solar field, store, cooling route, heat demand and
 //! backup boiler, and keeps the energy books.
 //!
-//! Per hour, in `SUBSTEPS` equal sub-steps (15 min): the differential thermostat decides
+//! Per hour, in `SUBSTEPS` equal sub-steps (7.5 min): the differential thermostat decides
 //! whether the collector pump runs; the field is solved for its outlet at the store's bottom
 //! temperature (through the loop heat exchanger when there is one); the route's and the heat
 //! demand's draws are planned from the store's top temperature; the store is stepped with all
@@ -24,8 +24,11 @@ use crate::sun::sky::PlaneIrradiance;
 use store::{MAX_STREAMS, Store, charge, draw};
 
 /// Sub-steps per hour of the plant loop (fixed; `YearInputs::substeps` may set another number
-/// to test that results do not depend on it).
-pub const SUBSTEPS: usize = 4;
+/// to test that results do not depend on it: halving the sub-step from 7.5 to 3.75 min changes
+/// every demo option's annual solar heat, cooling and electricity by less than 1 %, where 15 min
+/// against 7.5 min moved one option's solar heat by 1.2 % — the draws of machines on store heat
+/// alone stop at the first sub-step that starts with the store's top below their supply).
+pub const SUBSTEPS: usize = 8;
 const J_PER_KWH: f64 = 3.6e6;
 
 /// The building's heat demand in one hour (served by the store where the option says so).
@@ -143,6 +146,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
     let mut node = field_node::FieldNode {
         t_c: y.conditions.first().map_or(20.0, |c| c.t_db_c),
         capacity_j_k: solar.as_ref().map_or(0.0, |s| s.field_capacity_j_k),
+        t_max_c: solar.as_ref().map_or(f64::INFINITY, |s| s.t_max_c),
     };
     // The heat-driven machine's cut-in control (hysteresis on the store's top).
     let mut enabled = false;
@@ -202,58 +206,103 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     inlet: crate::components::tank::Inlet::Top,
                 }; MAX_STREAMS];
                 let mut n = 1;
-                // The thermostat's collector sensor: the field node's temperature while the
-                // pump is stopped (the no-flow steady temperature when the field has no heat
-                // capacity to remember).
-                let t_sensor = if node.capacity_j_k > 0.0 {
-                    node.t_c
-                } else {
-                    s.field.no_flow_temp_c(
-                        poa.beam_w_m2,
-                        poa.diffuse_w_m2(),
-                        poa.aoi_deg,
-                        c.t_db_c,
-                    )
-                };
-                let gain_possible = (rec.poa_w_m2 > 0.0 || node.capacity_j_k > 0.0)
-                    && t_sensor > t_bot + s.dt_on_k;
+                // Collector loop over the sub-step, with the thermostat acting at the moment
+                // its condition is met (not only at sub-step boundaries): a stopped field
+                // warms until its sensor (the node) is `dt_on_k` above the store's bottom, a
+                // running loop stops when its outlet rise falls to `dt_off_k`. The store's
+                // temperatures are those at the start of the sub-step. The running time and
+                // the heat delivered make one stream of the average flow.
+                let mut t_left = dt_s;
+                let mut run_s = 0.0;
+                let mut flow_time_kg = 0.0;
+                let mut heat_j = 0.0;
                 let mut started = false;
-                if t_top >= s.t_max_c {
-                    if gain_possible {
-                        rec.stagnation = true;
+                for _ in 0..6 {
+                    if t_left <= 0.0 {
+                        break;
                     }
-                    pump_on = false;
-                } else if !pump_on && gain_possible {
-                    pump_on = true;
-                    started = true;
-                }
-                let mut ran = false;
-                if pump_on {
+                    if t_top >= s.t_max_c {
+                        let t_stag = s.field.no_flow_temp_c(
+                            poa.beam_w_m2,
+                            poa.diffuse_w_m2(),
+                            poa.aoi_deg,
+                            c.t_db_c,
+                        );
+                        if rec.poa_w_m2 > 0.0 && t_stag > t_bot + s.dt_on_k {
+                            rec.stagnation = true;
+                        }
+                        pump_on = false;
+                        node.idle(&s.field, &sky, t_left);
+                        break;
+                    }
+                    if !pump_on {
+                        // When does the sensor call for the pump?
+                        let t_on = t_bot + s.dt_on_k;
+                        let wait = if node.capacity_j_k > 0.0 {
+                            node.idle_time_to(&s.field, &sky, t_on)
+                        } else {
+                            let t_nf = s.field.no_flow_temp_c(
+                                poa.beam_w_m2,
+                                poa.diffuse_w_m2(),
+                                poa.aoi_deg,
+                                c.t_db_c,
+                            );
+                            (rec.poa_w_m2 > 0.0 && t_nf > t_on).then_some(0.0)
+                        };
+                        match wait {
+                            Some(w) if w < t_left => {
+                                node.idle(&s.field, &sky, w);
+                                t_left -= w;
+                                pump_on = true;
+                                started = true;
+                            }
+                            _ => {
+                                node.idle(&s.field, &sky, t_left);
+                                break;
+                            }
+                        }
+                    }
+                    // Running: the loop's steady state plus what the node releases.
                     let lp = collector_loop(s, &poa, t_bot, c.t_db_c);
-                    // What the field's stored heat adds to (or takes from) the stream.
-                    let mut trial = node;
-                    let release_j = trial.run(lp.t_field_mean_c, lp.mcp_loop_w_k, dt_s);
-                    let t_to_store = if lp.flow_kg_s > 0.0 {
-                        lp.t_to_store_c + release_j / (dt_s * lp.flow_kg_s * s.cp_j_kgk)
+                    let fc = lp.flow_kg_s * s.cp_j_kgk;
+                    let rise_ss = lp.t_to_store_c - t_bot;
+                    let t_run = if node.capacity_j_k > 0.0 && lp.mcp_loop_w_k > 0.0 && fc > 0.0 {
+                        let tau = node.capacity_j_k / (2.0 * lp.mcp_loop_w_k);
+                        // Rise above the steady one from the node's release, at t = 0, K.
+                        let r0 = node.capacity_j_k * (node.t_c - lp.t_field_mean_c) / tau / fc;
+                        if rise_ss >= s.dt_off_k {
+                            t_left
+                        } else if rise_ss + r0 > s.dt_off_k {
+                            (tau * (r0 / (s.dt_off_k - rise_ss)).ln()).min(t_left)
+                        } else {
+                            0.0
+                        }
+                    } else if rise_ss >= s.dt_off_k || (started && rise_ss > 0.0) {
+                        t_left
                     } else {
-                        lp.t_to_store_c
+                        0.0
                     };
-                    let rise = t_to_store - t_bot;
-                    // The dead-band stops the pump when the rise falls below `dt_off_k`; a
-                    // pump that has just started runs its first sub-step (the sensor saw a
-                    // gain) and stops after it if the rise is not kept.
-                    if rise >= s.dt_off_k || (started && rise > 0.0) {
-                        streams[0] = charge(lp.flow_kg_s, t_to_store);
-                        rec.pump_hours += 1.0 / substeps as f64;
-                        node = trial;
-                        ran = true;
+                    if t_run > 0.0 {
+                        heat_j += fc * rise_ss * t_run
+                            + node.run(lp.t_field_mean_c, lp.mcp_loop_w_k, t_run);
+                        flow_time_kg += lp.flow_kg_s * t_run;
+                        run_s += t_run;
+                        t_left -= t_run;
                     }
-                    if rise < s.dt_off_k {
+                    if t_left > 0.0 {
+                        // Stopped within the sub-step: the rest idles (and may call the pump
+                        // again); stopped at once, the rest idles to the end.
                         pump_on = false;
                     }
+                    if t_run <= 0.0 {
+                        node.idle(&s.field, &sky, t_left);
+                        t_left = 0.0;
+                    }
                 }
-                if !ran {
-                    node.idle(&s.field, &sky, dt_s);
+                if run_s > 0.0 && flow_time_kg > 0.0 {
+                    let flow = flow_time_kg / dt_s;
+                    streams[0] = charge(flow, t_bot + heat_j / (flow_time_kg * s.cp_j_kgk));
+                    rec.pump_hours += run_s / 3600.0;
                 }
                 // Draws: the route's, then hot water, then space heating, in priority order.
                 let mut draws = [Draw::default(); 3];
@@ -453,12 +502,7 @@ struct LoopState {
 /// effectiveness ε, the collector inlet is `t_co − ε (t_co − t_store)` and the store receives
 /// `t_store + ε (t_co − t_store)`; the collector inlet is found by fixed-point iteration
 /// (a contraction: the collector outlet rises less than its inlet).
-fn collector_loop(
-    s: &SolarLoop,
-    poa: &PlaneIrradiance,
-    t_store_c: f64,
-    t_amb_c: f64,
-) -> LoopState {
+fn collector_loop(s: &SolarLoop, poa: &PlaneIrradiance, t_store_c: f64, t_amb_c: f64) -> LoopState {
     let run = |t_in: f64| {
         s.field.run(
             t_in,

@@ -558,10 +558,9 @@ fn solar_loop(
     // The field's heat capacity: the collectors' effective capacity (ISO 9806 c5, or the
     // class default) on their area basis, plus the pipes and their fluid.
     let c_collectors = 1000.0
-        * field
-            .collector
-            .heat_capacity_kj_m2k
-            .unwrap_or_else(|| crate::plant::field_node::default_capacity_kj_m2k(field.collector.kind))
+        * field.collector.heat_capacity_kj_m2k.unwrap_or_else(|| {
+            crate::plant::field_node::default_capacity_kj_m2k(field.collector.kind)
+        })
         * field.area_m2();
     let field_capacity_j_k = c_collectors + f.pipe_heat_capacity_j_mk * f.pipe_length_m;
     Ok((
@@ -586,12 +585,23 @@ fn solar_loop(
 
 /// Run every option of a prepared scenario.
 pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Result<Evaluation> {
+    run_with_substeps(l, p, built, crate::plant::SUBSTEPS)
+}
+
+/// [`run`] with another number of plant sub-steps per hour (to show results do not depend on
+/// it).
+pub fn run_with_substeps(
+    l: &Loaded,
+    p: &Prepared,
+    built: &[BuiltOption],
+    substeps: usize,
+) -> Result<Evaluation> {
     let y = YearInputs {
         conditions: &p.conditions,
         ghi_w_m2: &p.ghi_w_m2,
         heat_demand: &p.heat_demand,
         priority: l.scenario.heat_priority,
-        substeps: crate::plant::SUBSTEPS,
+        substeps,
     };
     let options = built
         .iter()

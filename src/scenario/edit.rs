@@ -142,7 +142,13 @@ impl Editable {
                 }
                 toml::Value::Integer(value as i64)
             }
-            Some(toml::Value::Float(_)) | None => toml::Value::Float(value),
+            Some(toml::Value::Float(_)) => toml::Value::Float(value),
+            // A key left at its default: a whole number goes in as an integer (a float key
+            // reads it as a float; an integer key such as `nodes` needs it whole).
+            None if value.fract() == 0.0 && value.abs() < 9.0e15 => {
+                toml::Value::Integer(value as i64)
+            }
+            None => toml::Value::Float(value),
             Some(other) => {
                 return Err(Error::input(
                     key,
