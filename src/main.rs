@@ -576,6 +576,10 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let ev = scenario::build::evaluate(&l)?;
             if let Some(h) = &hourly {
                 write_atomic(h, &parhelion::report::hourly::render(&ev)?)?;
+                write_atomic(
+                    &parhelion::report::hourly::meta_path(h),
+                    &parhelion::report::hourly::render_meta(&ev)?,
+                )?;
             }
             if let Some(m) = &markdown {
                 let text = parhelion::report::table::markdown(

@@ -87,14 +87,61 @@ fn evaluate_demo_prints_table_and_writes_files() {
     ] {
         assert!(out.contains(s), "table lacks {s}");
     }
-    let csv = std::fs::read_to_string(&hourly).unwrap();
-    let mut lines = csv.lines();
-    assert!(lines.next().unwrap().starts_with("# parhelion"));
-    let header = lines.next().unwrap();
-    assert!(header.starts_with(
-        "option,route,hour_of_year,month,day,hour,t_amb_c,ghi_w_m2,poa_w_m2,load_kwh,cooling_kwh"
-    ));
-    let n_rows = lines.count();
+    // The hourly CSV as a data tool reads it with its defaults: the header on the first line,
+    // every row with the header's field count (the `csv` crate's reader is strict about that).
+    let text = std::fs::read_to_string(&hourly).unwrap();
+    let header = text.lines().next().unwrap();
+    assert!(
+        header.starts_with(
+            "option,route,hour_of_year,month,day,hour,t_amb_c,t_wb_c,w_kg_kg,ghi_w_m2,dni_w_m2,\
+             dhi_w_m2,poa_w_m2,poa_beam_w_m2,poa_diffuse_w_m2,load_kwh,cooling_kwh"
+        ),
+        "{header}"
+    );
+    let mut rd = csv::Reader::from_path(&hourly).unwrap();
+    let head = rd.headers().unwrap().clone();
+    assert_eq!(head.iter().next_back(), Some("detail"));
+    let col = |name: &str| head.iter().position(|h| h == name).unwrap();
+    let (beam, diffuse, poa) = (
+        col("poa_beam_w_m2"),
+        col("poa_diffuse_w_m2"),
+        col("poa_w_m2"),
+    );
+    let (t_amb, t_wb, dni) = (col("t_amb_c"), col("t_wb_c"), col("dni_w_m2"));
+    let mut n_rows = 0;
+    let mut sunny_plane_hours = 0;
+    for rec in rd.records() {
+        let rec = rec.unwrap();
+        assert_eq!(rec.len(), head.len());
+        let f = |i: usize| rec[i].parse::<f64>().unwrap();
+        // The plane's beam and diffuse add up to its total (six decimals written).
+        assert!((f(beam) + f(diffuse) - f(poa)).abs() < 1e-5, "{rec:?}");
+        assert!(
+            f(t_wb) <= f(t_amb) + 1e-6,
+            "wet-bulb above dry-bulb: {rec:?}"
+        );
+        sunny_plane_hours += usize::from(f(beam) > 0.0 && f(dni) > 0.0);
+        n_rows += 1;
+    }
+    assert!(sunny_plane_hours > 1000, "{sunny_plane_hours}");
+    // Version, scenario, caution and the column meanings are in the sidecar.
+    let meta: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(d.join("hourly.csv.meta.json")).unwrap())
+            .unwrap();
+    assert_eq!(meta["version"], env!("CARGO_PKG_VERSION"));
+    assert_eq!(meta["scenario"], "Port Meridian clinic (demo)");
+    assert!(meta["caution"].as_str().unwrap().contains("Screening"));
+    let names: Vec<&str> = meta["columns"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| {
+            assert!(!c["unit"].as_str().unwrap().is_empty());
+            assert!(!c["meaning"].as_str().unwrap().is_empty());
+            c["name"].as_str().unwrap()
+        })
+        .collect();
+    assert_eq!(names, head.iter().collect::<Vec<_>>());
     let v: serde_json::Value =
         serde_json::from_str(&std::fs::read_to_string(&json).unwrap()).unwrap();
     assert_eq!(v["scenario"], "Port Meridian clinic (demo)");
@@ -140,7 +187,7 @@ fn evaluate_demo_prints_table_and_writes_files() {
         .unwrap()
         .map(|e| e.unwrap().file_name().to_string_lossy().to_string())
         .collect();
-    assert_eq!(names.len(), 2, "{names:?}");
+    assert_eq!(names.len(), 3, "{names:?}");
     std::fs::remove_dir_all(&d).unwrap();
 }
 
