@@ -700,3 +700,234 @@ fn calibrate_fits_the_demo_datasheet_and_refuses_a_bad_one() {
     assert!(stderr(&o).contains("datasheet"), "{}", stderr(&o));
     let _ = std::fs::remove_dir_all(&d);
 }
+
+// ---- conventions: `-`, output folders, exit statuses, --quiet, help ----
+
+/// `-` sends each text output of `evaluate` to standard output (no file named `-` appears), and
+/// then the terminal table is not printed; two outputs on standard output are refused.
+#[test]
+fn dash_means_standard_output() {
+    let d = tmp("dash");
+    let office = demo_path("qasr-alvar-office");
+    let office = office.to_str().unwrap();
+    let in_tmp = |args: &[&str]| bin().current_dir(&d).args(args).output().unwrap();
+    let o = in_tmp(&["evaluate", office, "--hourly", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let mut rd = csv::Reader::from_reader(o.stdout.as_slice());
+    assert_eq!(rd.headers().unwrap().get(0), Some("option"));
+    assert_eq!(
+        rd.records().collect::<Result<Vec<_>, _>>().unwrap().len(),
+        7 * 8760
+    );
+    let o = in_tmp(&["evaluate", office, "--markdown", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let t = String::from_utf8_lossy(&o.stdout);
+    // The Markdown alone: no terminal table (box drawing) mixed in.
+    assert!(t.contains("## Caution") && !t.contains('┌'), "{t}");
+    let o = in_tmp(&["evaluate", office, "--report", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let t = String::from_utf8_lossy(&o.stdout);
+    assert!(t.trim_start().starts_with("<!DOCTYPE html>") && t.trim_end().ends_with("</html>"));
+    let o = in_tmp(&["weather", office, "--csv", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    assert_eq!(String::from_utf8_lossy(&o.stdout).lines().count(), 14);
+    let o = in_tmp(&["init", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("[site]"));
+    let o = in_tmp(&["evaluate", office, "--json", "-", "--report", "-"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("only one output"), "{}", stderr(&o));
+    let o = in_tmp(&["evaluate", office, "--xlsx", "-"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--xlsx"), "{}", stderr(&o));
+    let left: Vec<_> = std::fs::read_dir(&d).unwrap().collect();
+    assert!(left.is_empty(), "files written: {left:?}");
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+/// An output whose folder does not exist is refused with exit 2, naming the flag and the path,
+/// before any work: the scenario named after it does not even exist, and the message is about
+/// the output, not the scenario.
+#[test]
+fn output_in_a_missing_folder_is_refused_before_the_run() {
+    let d = tmp("nofolder");
+    let out = d.join("no-such-folder").join("out.x");
+    let out = out.to_str().unwrap();
+    let scen = d.join("not-there.toml");
+    let scen = scen.to_str().unwrap();
+    let cases: [Vec<&str>; 9] = [
+        vec!["evaluate", scen, "--hourly", out],
+        vec!["evaluate", scen, "--json", out],
+        vec!["evaluate", scen, "--markdown", out],
+        vec!["evaluate", scen, "--xlsx", out],
+        vec!["evaluate", scen, "--report", out],
+        vec!["weather", scen, "--csv", out],
+        vec!["sweep", scen, "--set", "a.b=1:2:1", "--out", out],
+        vec!["uncertainty", scen, "--samples", "2", "--out", out],
+        vec!["init", out],
+    ];
+    for args in cases {
+        let o = run(&args);
+        let e = stderr(&o);
+        assert_eq!(o.status.code(), Some(2), "{args:?}: {e}");
+        let flag = args.iter().rev().nth(1).filter(|f| f.starts_with("--"));
+        assert!(
+            e.contains(out) && e.contains("does not exist") && !e.contains("not-there.toml"),
+            "{args:?}: {e}"
+        );
+        if let Some(flag) = flag {
+            assert!(e.contains(flag), "{args:?} names {flag}: {e}");
+        }
+    }
+    // The demo with a good path next to a bad one: nothing written.
+    let good = d.join("h.csv");
+    let o = run(&[
+        "evaluate",
+        demo_path("qasr-alvar-office").to_str().unwrap(),
+        "--hourly",
+        good.to_str().unwrap(),
+        "--report",
+        out,
+    ]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(!good.exists());
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+/// Ctrl-C (SIGINT) stops `sweep` and `uncertainty`: exit 130, the rows finished are written.
+#[cfg(unix)]
+#[test]
+fn ctrl_c_exits_130_and_keeps_rows() {
+    let d = tmp("ctrlc");
+    let office = demo_path("qasr-alvar-office");
+    let office = office.to_str().unwrap();
+    let out = d.join("rows.csv");
+    let full = [
+        (
+            vec![
+                "sweep",
+                office,
+                "--option",
+                "solar-absorption",
+                "--set",
+                "options.solar-absorption.field.gross_area_m2=10:400:1",
+            ],
+            391 * 2,
+        ),
+        (vec!["uncertainty", office, "--samples", "300"], 300 * 7),
+    ];
+    for (args, all_rows) in full {
+        let _ = std::fs::remove_file(&out);
+        let child = bin()
+            .args(&args)
+            .args(["--quiet", "--out", out.to_str().unwrap()])
+            .stdout(std::process::Stdio::null())
+            .stderr(std::process::Stdio::piped())
+            .spawn()
+            .unwrap();
+        std::thread::sleep(std::time::Duration::from_millis(2500));
+        let k = Command::new("kill")
+            .args(["-INT", &child.id().to_string()])
+            .status()
+            .unwrap();
+        assert!(k.success());
+        let o = child.wait_with_output().unwrap();
+        assert_eq!(o.status.code(), Some(130), "{args:?}: {}", stderr(&o));
+        let mut rd = csv::Reader::from_path(&out).unwrap();
+        assert!(rd.headers().unwrap().iter().any(|h| h == "option"));
+        let rows = rd.records().collect::<Result<Vec<_>, _>>().unwrap().len();
+        assert!(rows < all_rows, "{args:?}: stopped early ({rows} rows)");
+    }
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+/// `size` with a target it cannot reach in the range exits 3 (and says so); a met target 0.
+#[test]
+fn size_unreachable_exits_3() {
+    let office = demo_path("qasr-alvar-office");
+    let o = run(&[
+        "size",
+        office.to_str().unwrap(),
+        "--option",
+        "solar-absorption",
+        "--target",
+        "solar_share_of_cooling=0.99",
+        "--vary",
+        "options.solar-absorption.field.gross_area_m2=10:20",
+    ]);
+    assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("NOT reachable"));
+}
+
+/// Every verb's and substance's `--help`: each argument has a description, and `--quiet` is
+/// accepted everywhere.
+#[test]
+fn every_help_argument_is_described_and_quiet_is_everywhere() {
+    let verbs: [&[&str]; 14] = [
+        &[],
+        &["evaluate"],
+        &["init"],
+        &["weather"],
+        &["size"],
+        &["sweep"],
+        &["sensitivity"],
+        &["uncertainty"],
+        &["calibrate"],
+        &["checks"],
+        &["state", "air"],
+        &["state", "water"],
+        &["state", "libr"],
+        &["state", "fluid"],
+    ];
+    for v in verbs {
+        let o = bin().args(v).arg("--help").output().unwrap();
+        assert_eq!(o.status.code(), Some(0), "{v:?}");
+        let help = String::from_utf8_lossy(&o.stdout);
+        if !v.is_empty() {
+            assert!(help.contains("--quiet"), "{v:?} lacks --quiet: {help}");
+        }
+        let mut in_list = false;
+        for line in help.lines() {
+            if line.ends_with(':') && !line.starts_with(' ') {
+                in_list = ["Arguments:", "Options:", "Commands:"].contains(&line);
+                continue;
+            }
+            let t = line.trim_start();
+            // An argument's line starts at the list's indent: `-x`, `--long`, `<ARG>`, `[ARG]`
+            // or a command name; its description follows after two or more spaces.
+            if !in_list || line.len() - t.len() > 6 || t.is_empty() {
+                continue;
+            }
+            let described = t
+                .split_once("  ")
+                .is_some_and(|(_, d)| !d.trim().is_empty());
+            assert!(described, "{v:?}: `{t}` has no description");
+        }
+    }
+    // --quiet prints nothing on standard output and keeps the exit status.
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "60", "--quiet"]);
+    assert_eq!(o.status.code(), Some(0));
+    assert!(o.stdout.is_empty());
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "140", "--quiet"]);
+    assert_eq!(o.status.code(), Some(2));
+}
+
+/// `state air --rh` is in percent: outside 0–100 refused with that hint; a value that reads
+/// like a fraction runs, with a note that says what the percent would be.
+#[test]
+fn state_air_rh_is_percent() {
+    for bad in ["140", "-5", "NaN", "100.5"] {
+        let o = run(&["state", "air", "--t-c", "32", "--rh", bad]);
+        assert_eq!(o.status.code(), Some(2), "{bad}");
+        let e = stderr(&o);
+        assert!(
+            e.contains("--rh") && e.contains("percent") && e.contains("0 to 100"),
+            "{bad}: {e}"
+        );
+    }
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "0.6", "--json"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!((v["rh_pct"].as_f64().unwrap() - 0.6).abs() < 1e-9);
+    assert!(stderr(&o).contains("give --rh 60"), "{}", stderr(&o));
+}
