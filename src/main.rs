@@ -1,10 +1,11 @@
 //! `parhelion` command line: parse, call the library, print, map errors to exit codes
-//! (0 success, 2 bad input, 1 internal failure).
+//! (0 success, 1 internal failure, 2 bad input, 3 a `size` target not reachable, 130 stopped by
+//! Ctrl-C). `-` as an output path is standard output.
 
 mod cli;
 
 use clap::{Parser, Subcommand};
-use parhelion::report::files::{refuse_input, write_atomic};
+use parhelion::report::files::{check_output, is_stdout, refuse_input, write_atomic};
 use parhelion::{Error, scenario};
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -16,6 +17,10 @@ use std::process::ExitCode;
 struct Cli {
     #[command(subcommand)]
     verb: Verb,
+    /// Print nothing on standard output but what `-` sends there, and no progress or notes on
+    /// standard error (files are still written; errors are still reported).
+    #[arg(long, global = true)]
+    quiet: bool,
 }
 
 #[derive(Subcommand)]
@@ -24,31 +29,31 @@ enum Verb {
     Evaluate {
         /// Scenario file (TOML).
         scenario: PathBuf,
-        /// Write hourly records (one row per hour and option) to this CSV file.
-        #[arg(long, value_name = "FILE.csv")]
+        /// Write hourly records (one row per hour and option) to this CSV file, its
+        /// FILE.csv.meta.json sidecar beside it; `-` for standard output (no sidecar).
+        #[arg(long, value_name = "FILE.csv|-")]
         hourly: Option<PathBuf>,
         /// Write the JSON summary to this file, or `-` for standard output.
-        #[arg(long, value_name = "FILE|-")]
-        json: Option<String>,
-        /// Write the feasibility tables, assumptions and caution as Markdown to this file.
-        #[arg(long, value_name = "FILE.md")]
+        #[arg(long, value_name = "FILE.json|-")]
+        json: Option<PathBuf>,
+        /// Write the feasibility tables, assumptions and caution as Markdown to this file, or
+        /// `-` for standard output.
+        #[arg(long, value_name = "FILE.md|-")]
         markdown: Option<PathBuf>,
         /// Write the spreadsheet (annual, monthly, hourly, assumptions, caution sheets).
         #[arg(long, value_name = "FILE.xlsx")]
         xlsx: Option<PathBuf>,
-        /// Write the self-contained HTML report with tables and charts.
-        #[arg(long, value_name = "FILE.html")]
+        /// Write the self-contained HTML report with tables and charts, or `-` for standard
+        /// output.
+        #[arg(long, value_name = "FILE.html|-")]
         report: Option<PathBuf>,
         /// Also print a monthly table for each option.
         #[arg(long)]
         monthly: bool,
-        /// Print nothing on success (files are still written).
-        #[arg(long)]
-        quiet: bool,
     },
     /// Write a commented starter scenario that runs as is (never overwrites a file).
     Init {
-        /// Where to write it.
+        /// Where to write it, or `-` for standard output.
         #[arg(default_value = "scenario.toml")]
         path: PathBuf,
     },
@@ -56,13 +61,15 @@ enum Verb {
     Weather {
         /// Scenario file (TOML).
         scenario: PathBuf,
-        /// Also write the summary as CSV.
-        #[arg(long, value_name = "FILE.csv")]
+        /// Also write the summary as CSV to this file, or `-` for standard output (instead of
+        /// the table).
+        #[arg(long, value_name = "FILE.csv|-")]
         csv: Option<PathBuf>,
     },
     /// Find the value of one scenario quantity that meets a target on an annual figure, or
     /// that minimises (maximises) a figure over one or two quantities.
     Size {
+        /// Scenario file (TOML).
         scenario: PathBuf,
         /// The option whose figure is targeted.
         #[arg(long)]
@@ -83,6 +90,7 @@ enum Verb {
     },
     /// Run a full grid of designs over scenario keys; one CSV row per design and option.
     Sweep {
+        /// Scenario file (TOML).
         scenario: PathBuf,
         /// KEY=START:STOP:STEP (repeat for a grid).
         #[arg(long = "set", required = true)]
@@ -90,16 +98,15 @@ enum Verb {
         /// Simulate only this option.
         #[arg(long)]
         option: Option<String>,
-        /// Write the CSV here (default: standard output).
-        #[arg(long, value_name = "FILE.csv")]
+        /// Write the CSV here, or `-` for standard output (the default).
+        #[arg(long, value_name = "FILE.csv|-")]
         out: Option<PathBuf>,
-        /// No progress bar.
-        #[arg(long)]
-        quiet: bool,
     },
     /// One-at-a-time sensitivity of an annual figure to each `[[uncertainty.inputs]]`.
     Sensitivity {
+        /// Scenario file (TOML).
         scenario: PathBuf,
+        /// The option whose figure is studied.
         #[arg(long)]
         option: String,
         /// Annual figure (JSON summary key).
@@ -109,25 +116,28 @@ enum Verb {
     /// Latin-hypercube uncertainty over the `[[uncertainty.inputs]]`: P10/P50/P90 of each
     /// option's figures and the probability each beats the reference.
     Uncertainty {
+        /// Scenario file (TOML).
         scenario: PathBuf,
+        /// Number of Latin-hypercube samples (whole years run per option), at least 1.
         #[arg(long)]
         samples: usize,
+        /// Seed of the random draw: the same seed gives the same samples.
         #[arg(long, default_value_t = 1)]
         seed: u64,
         /// Figure on which options are compared with the reference (grid electricity:
         /// an option's own PV counts).
         #[arg(long, default_value = "grid_kwh")]
         figure: String,
-        /// Write every sample's figures to this CSV.
-        #[arg(long, value_name = "FILE.csv")]
+        /// Write every sample's figures to this CSV, or `-` for standard output (the summary
+        /// table then goes to standard error).
+        #[arg(long, value_name = "FILE.csv|-")]
         out: Option<PathBuf>,
-        #[arg(long)]
-        quiet: bool,
     },
     /// Fit each absorption option that names a `datasheet` to it and print the fitted UA
     /// multipliers, SHX effectiveness and the error at every row; exit status 2 when a fit
     /// is beyond its bounds.
     Calibrate {
+        /// Scenario file (TOML).
         scenario: PathBuf,
         /// Only this option.
         #[arg(long)]
@@ -138,6 +148,7 @@ enum Verb {
     },
     /// Print one state point of a working substance, to check by hand.
     State {
+        /// The substance.
         #[command(subcommand)]
         substance: Substance,
     },
@@ -157,8 +168,8 @@ enum Substance {
         /// Dry-bulb, °C.
         #[arg(long = "t-c", allow_negative_numbers = true)]
         t_c: f64,
-        /// Relative humidity, %.
-        #[arg(long, group = "hum")]
+        /// Relative humidity in percent, 0–100 (60 for 60 %, not 0.6).
+        #[arg(long, group = "hum", allow_negative_numbers = true)]
         rh: Option<f64>,
         /// Humidity ratio, kg/kg.
         #[arg(long, group = "hum")]
@@ -175,6 +186,7 @@ enum Substance {
         /// Elevation, m: standard-atmosphere pressure.
         #[arg(long = "elevation-m", allow_negative_numbers = true)]
         elevation_m: Option<f64>,
+        /// Print JSON instead of a table.
         #[arg(long)]
         json: bool,
     },
@@ -191,6 +203,7 @@ enum Substance {
         /// Vapour quality 0..1 (saturated states).
         #[arg(long)]
         q: Option<f64>,
+        /// Print JSON instead of a table.
         #[arg(long)]
         json: bool,
     },
@@ -207,6 +220,7 @@ enum Substance {
         /// Equilibrium (vapour) pressure, kPa.
         #[arg(long = "p-kpa")]
         p_kpa: Option<f64>,
+        /// Print JSON instead of a table.
         #[arg(long)]
         json: bool,
     },
@@ -217,22 +231,47 @@ enum Substance {
     Fluid {
         /// R245fa, n-pentane, R1233zd(E), toluene, R134a, R32, R290, R1234ze(E), water.
         name: String,
+        /// Temperature, °C.
         #[arg(long = "t-c", allow_negative_numbers = true)]
         t_c: Option<f64>,
+        /// Pressure, kPa.
         #[arg(long = "p-kpa")]
         p_kpa: Option<f64>,
+        /// Vapour quality 0..1 (saturated states).
         #[arg(long)]
         q: Option<f64>,
+        /// Specific enthalpy, kJ/kg (IIR reference).
         #[arg(long = "h-kj-kg", allow_negative_numbers = true)]
         h_kj_kg: Option<f64>,
+        /// Specific entropy, kJ/(kg·K) (IIR reference).
         #[arg(long = "s-kj-kg-k", allow_negative_numbers = true)]
         s_kj_kg_k: Option<f64>,
+        /// Print JSON instead of a table.
         #[arg(long)]
         json: bool,
     },
 }
 
-fn state(s: Substance) -> Result<String, Error> {
+/// Refuse a relative humidity outside 0–100 %, with the hint that it is in percent; note on
+/// standard error (unless `quiet`) a value that reads like a fraction (0 < RH ≤ 1).
+fn check_rh(rh: f64, quiet: bool) -> Result<(), Error> {
+    if !(0.0..=100.0).contains(&rh) {
+        return Err(Error::input(
+            "--rh",
+            rh,
+            "relative humidity is in percent, 0 to 100 (60 for 60 %)",
+        ));
+    }
+    if rh > 0.0 && rh <= 1.0 && !quiet {
+        let pct = (rh * 100.0 * 1e6).round() / 1e6;
+        eprintln!(
+            "note: --rh is in percent: {rh} means {rh} % relative humidity; if you meant {pct} %, give --rh {pct}"
+        );
+    }
+    Ok(())
+}
+
+fn state(s: Substance, quiet: bool) -> Result<String, Error> {
     use parhelion::props::{fluids, libr};
     use parhelion::props::{psychro, water};
     use parhelion::report::state::{Quantity as Q, render_json, render_text};
@@ -249,6 +288,9 @@ fn state(s: Substance) -> Result<String, Error> {
         } => {
             let p = p_kpa
                 .unwrap_or_else(|| elevation_m.map_or(101.325, psychro::pressure_at_elevation_kpa));
+            if let Some(rh) = rh {
+                check_rh(rh, quiet)?;
+            }
             let a = match (rh, w, t_wb_c, t_dp_c) {
                 (Some(rh), ..) => psychro::state_from_rh(t_c, rh, p)?,
                 (_, Some(w), ..) => psychro::state_from_ratio(t_c, w, p)?,
@@ -522,6 +564,11 @@ fn main() -> ExitCode {
     }
 }
 
+/// Exit status of a `size` whose target is not reachable in the range searched.
+const EXIT_UNREACHABLE: u8 = 3;
+/// Exit status of a run stopped by Ctrl-C (128 + SIGINT, as shells report it).
+const EXIT_INTERRUPTED: u8 = 130;
+
 fn inputs_of(l: &scenario::Loaded) -> Vec<PathBuf> {
     let mut v = vec![l.path.clone()];
     if let Some(f) = &l.scenario.weather.file {
@@ -538,10 +585,10 @@ fn inputs_of(l: &scenario::Loaded) -> Vec<PathBuf> {
     v
 }
 
-fn print(s: &str) -> Result<(), Error> {
+fn print_bytes(b: &[u8]) -> Result<(), Error> {
     let mut out = std::io::stdout().lock();
     // A closed pipe (`| head`) is not a failure of the run.
-    match out.write_all(s.as_bytes()).and_then(|_| out.flush()) {
+    match out.write_all(b).and_then(|_| out.flush()) {
         Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => Err(Error::Write {
             path: PathBuf::from("(standard output)"),
             source: e,
@@ -550,7 +597,43 @@ fn print(s: &str) -> Result<(), Error> {
     }
 }
 
+fn print(s: &str) -> Result<(), Error> {
+    print_bytes(s.as_bytes())
+}
+
+/// Write an output: to standard output for `-`, else whole to the file.
+fn emit(path: &Path, bytes: &[u8]) -> Result<(), Error> {
+    if is_stdout(path) {
+        print_bytes(bytes)
+    } else {
+        write_atomic(path, bytes)
+    }
+}
+
+/// Check a verb's output paths before any work: each folder exists, at most one is `-`.
+fn check_outputs(outs: &[(&str, Option<&PathBuf>)]) -> Result<(), Error> {
+    let to_stdout: Vec<&str> = outs
+        .iter()
+        .filter(|(_, p)| p.is_some_and(|p| is_stdout(p)))
+        .map(|(f, _)| *f)
+        .collect();
+    if to_stdout.len() > 1 {
+        return Err(Error::input(
+            to_stdout.join(", "),
+            "-",
+            "only one output can go to standard output: give the others a file path",
+        ));
+    }
+    for (flag, p) in outs {
+        if let Some(p) = p {
+            check_output(flag, p)?;
+        }
+    }
+    Ok(())
+}
+
 fn run(cli: Cli) -> Result<ExitCode, Error> {
+    let quiet = cli.quiet;
     match cli.verb {
         Verb::Evaluate {
             scenario: path,
@@ -560,29 +643,47 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             xlsx,
             report,
             monthly,
-            quiet,
         } => {
+            if xlsx.as_deref().is_some_and(is_stdout) {
+                return Err(Error::input(
+                    "--xlsx",
+                    "-",
+                    "a spreadsheet is a binary file: give a FILE.xlsx path",
+                ));
+            }
+            let outs = [
+                ("--hourly", hourly.as_ref()),
+                ("--json", json.as_ref()),
+                ("--markdown", markdown.as_ref()),
+                ("--xlsx", xlsx.as_ref()),
+                ("--report", report.as_ref()),
+            ];
+            check_outputs(&outs)?;
             let l = scenario::load(&path)?;
             let inputs = inputs_of(&l);
-            if let Some(h) = &hourly {
-                refuse_input(h, &inputs)?;
+            for p in outs.iter().filter_map(|(_, p)| *p) {
+                refuse_input(p, &inputs)?;
             }
-            for f in [&markdown, &xlsx, &report].into_iter().flatten() {
-                refuse_input(f, &inputs)?;
-            }
-            if let Some(j) = json.as_deref().filter(|j| *j != "-") {
-                refuse_input(Path::new(j), &inputs)?;
+            let hourly_meta = hourly
+                .as_deref()
+                .filter(|h| !is_stdout(h))
+                .map(parhelion::report::hourly::meta_path);
+            if let Some(m) = &hourly_meta {
+                refuse_input(m, &inputs)?;
             }
             let ev = scenario::build::evaluate(&l)?;
             if let Some(h) = &hourly {
-                write_atomic(h, &parhelion::report::hourly::render(&ev)?)?;
+                emit(h, &parhelion::report::hourly::render(&ev)?)?;
+            }
+            if let Some(m) = &hourly_meta {
+                write_atomic(m, &parhelion::report::hourly::render_meta(&ev)?)?;
             }
             if let Some(m) = &markdown {
                 let text = parhelion::report::table::markdown(
                     &ev,
                     &parhelion::scenario::assumptions(&l.scenario),
                 );
-                write_atomic(m, text.as_bytes())?;
+                emit(m, text.as_bytes())?;
             }
             if let Some(x) = &xlsx {
                 let bytes = parhelion::report::xlsx::render(
@@ -594,16 +695,13 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             if let Some(r) = &report {
                 let checks = parhelion::checks::run_all()?;
                 let html = parhelion::report::html::render(&ev, &l.scenario, &checks)?;
-                write_atomic(r, html.as_bytes())?;
+                emit(r, html.as_bytes())?;
             }
-            match json.as_deref() {
-                Some("-") => print(&String::from_utf8_lossy(&parhelion::report::json::render(
-                    &ev,
-                )?))?,
-                Some(j) => write_atomic(Path::new(j), &parhelion::report::json::render(&ev)?)?,
-                None => {}
+            if let Some(j) = &json {
+                emit(j, &parhelion::report::json::render(&ev)?)?;
             }
-            if !quiet && json.as_deref() != Some("-") {
+            let stdout_taken = outs.iter().any(|(_, p)| p.is_some_and(|p| is_stdout(p)));
+            if !quiet && !stdout_taken {
                 let mut s = parhelion::report::table::feasibility(&ev);
                 if monthly {
                     for o in &ev.options {
@@ -616,6 +714,13 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             Ok(ExitCode::SUCCESS)
         }
         Verb::Init { path } => {
+            if is_stdout(&path) {
+                if !quiet {
+                    print(scenario::starter::STARTER)?;
+                }
+                return Ok(ExitCode::SUCCESS);
+            }
+            check_output("PATH", &path)?;
             if path.exists() {
                 return Err(Error::input(
                     "PATH",
@@ -624,17 +729,20 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 ));
             }
             write_atomic(&path, scenario::starter::STARTER.as_bytes())?;
-            print(&format!(
-                "wrote {} — run it with: parhelion evaluate {}\n",
-                path.display(),
-                path.display()
-            ))?;
+            if !quiet {
+                print(&format!(
+                    "wrote {} — run it with: parhelion evaluate {}\n",
+                    path.display(),
+                    path.display()
+                ))?;
+            }
             Ok(ExitCode::SUCCESS)
         }
         Verb::Weather {
             scenario: path,
             csv,
         } => {
+            check_outputs(&[("--csv", csv.as_ref())])?;
             let l = scenario::load(&path)?;
             if let Some(c) = &csv {
                 refuse_input(c, &inputs_of(&l))?;
@@ -643,9 +751,11 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let built = scenario::build::build_options(&l, &p)?;
             let s = scenario::build::weather_summary(&p, &built);
             if let Some(c) = &csv {
-                write_atomic(c, &parhelion::report::weather::render_csv(&s)?)?;
+                emit(c, &parhelion::report::weather::render_csv(&s)?)?;
             }
-            print(&parhelion::report::weather::render(&s))?;
+            if !quiet && !csv.as_deref().is_some_and(is_stdout) {
+                print(&parhelion::report::weather::render(&s))?;
+            }
             Ok(ExitCode::SUCCESS)
         }
         Verb::Size {
@@ -656,23 +766,31 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             vary,
             tol,
         } => {
-            print(&cli::explore::size(cli::explore::SizeArgs {
+            let (text, met) = cli::explore::size(cli::explore::SizeArgs {
                 scenario: &scenario,
                 option: &option,
                 target: target.as_deref(),
                 minimize: minimize.as_deref(),
                 vary: &vary,
                 tol,
-            })?)?;
-            Ok(ExitCode::SUCCESS)
+            })?;
+            if !quiet {
+                print(&text)?;
+            }
+            Ok(if met {
+                ExitCode::SUCCESS
+            } else {
+                ExitCode::from(EXIT_UNREACHABLE)
+            })
         }
         Verb::Sweep {
             scenario,
             set,
             option,
             out,
-            quiet,
         } => {
+            cli::explore::catch_interrupt();
+            check_outputs(&[("--out", out.as_ref())])?;
             if let Some(o) = &out {
                 refuse_input(o, std::slice::from_ref(&scenario))?;
             }
@@ -682,21 +800,25 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 option: option.as_deref(),
                 quiet,
             })?;
-            match &out {
-                Some(o) => write_atomic(o, &csv)?,
-                None => print(&String::from_utf8_lossy(&csv))?,
-            }
+            emit(out.as_deref().unwrap_or(Path::new("-")), &csv)?;
             if !quiet {
                 eprint!("{note}");
             }
-            Ok(ExitCode::SUCCESS)
+            Ok(if cli::explore::interrupted() {
+                ExitCode::from(EXIT_INTERRUPTED)
+            } else {
+                ExitCode::SUCCESS
+            })
         }
         Verb::Sensitivity {
             scenario,
             option,
             figure,
         } => {
-            print(&cli::explore::sensitivity(&scenario, &option, &figure)?)?;
+            let text = cli::explore::sensitivity(&scenario, &option, &figure)?;
+            if !quiet {
+                print(&text)?;
+            }
             Ok(ExitCode::SUCCESS)
         }
         Verb::Uncertainty {
@@ -705,8 +827,9 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             seed,
             figure,
             out,
-            quiet,
         } => {
+            cli::explore::catch_interrupt();
+            check_outputs(&[("--out", out.as_ref())])?;
             if let Some(o) = &out {
                 refuse_input(o, std::slice::from_ref(&scenario))?;
             }
@@ -718,13 +841,26 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 quiet,
             })?;
             if let Some(o) = &out {
-                write_atomic(o, &csv)?;
+                emit(o, &csv)?;
             }
-            print(&text)?;
-            Ok(ExitCode::SUCCESS)
+            if !quiet {
+                if out.as_deref().is_some_and(is_stdout) {
+                    eprint!("{text}");
+                } else {
+                    print(&text)?;
+                }
+            }
+            Ok(if cli::explore::interrupted() {
+                ExitCode::from(EXIT_INTERRUPTED)
+            } else {
+                ExitCode::SUCCESS
+            })
         }
         Verb::State { substance } => {
-            print(&state(substance)?)?;
+            let text = state(substance, quiet)?;
+            if !quiet {
+                print(&text)?;
+            }
             Ok(ExitCode::SUCCESS)
         }
         Verb::Calibrate {
@@ -765,8 +901,10 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                     .collect();
                 let v = serde_json::to_string_pretty(&v)
                     .map_err(|e| Error::Internal(format!("JSON: {e}")))?;
-                print(&format!("{v}\n"))?;
-            } else {
+                if !quiet {
+                    print(&format!("{v}\n"))?;
+                }
+            } else if !quiet {
                 let text: Vec<String> = fits
                     .iter()
                     .map(|(n, f)| parhelion::report::calibration::render(n, f))
@@ -799,8 +937,10 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                         .collect::<Vec<_>>(),
                 )
                 .map_err(|e| Error::Internal(format!("JSON: {e}")))?;
-                print(&format!("{v}\n"))?;
-            } else {
+                if !quiet {
+                    print(&format!("{v}\n"))?;
+                }
+            } else if !quiet {
                 print(&parhelion::report::checks::render(&checks))?;
             }
             if failed > 0 {

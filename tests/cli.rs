@@ -87,14 +87,61 @@ fn evaluate_demo_prints_table_and_writes_files() {
     ] {
         assert!(out.contains(s), "table lacks {s}");
     }
-    let csv = std::fs::read_to_string(&hourly).unwrap();
-    let mut lines = csv.lines();
-    assert!(lines.next().unwrap().starts_with("# parhelion"));
-    let header = lines.next().unwrap();
-    assert!(header.starts_with(
-        "option,route,hour_of_year,month,day,hour,t_amb_c,ghi_w_m2,poa_w_m2,load_kwh,cooling_kwh"
-    ));
-    let n_rows = lines.count();
+    // The hourly CSV as a data tool reads it with its defaults: the header on the first line,
+    // every row with the header's field count (the `csv` crate's reader is strict about that).
+    let text = std::fs::read_to_string(&hourly).unwrap();
+    let header = text.lines().next().unwrap();
+    assert!(
+        header.starts_with(
+            "option,route,hour_of_year,month,day,hour,t_amb_c,t_wb_c,w_kg_kg,ghi_w_m2,dni_w_m2,\
+             dhi_w_m2,poa_w_m2,poa_beam_w_m2,poa_diffuse_w_m2,load_kwh,cooling_kwh"
+        ),
+        "{header}"
+    );
+    let mut rd = csv::Reader::from_path(&hourly).unwrap();
+    let head = rd.headers().unwrap().clone();
+    assert_eq!(head.iter().next_back(), Some("detail"));
+    let col = |name: &str| head.iter().position(|h| h == name).unwrap();
+    let (beam, diffuse, poa) = (
+        col("poa_beam_w_m2"),
+        col("poa_diffuse_w_m2"),
+        col("poa_w_m2"),
+    );
+    let (t_amb, t_wb, dni) = (col("t_amb_c"), col("t_wb_c"), col("dni_w_m2"));
+    let mut n_rows = 0;
+    let mut sunny_plane_hours = 0;
+    for rec in rd.records() {
+        let rec = rec.unwrap();
+        assert_eq!(rec.len(), head.len());
+        let f = |i: usize| rec[i].parse::<f64>().unwrap();
+        // The plane's beam and diffuse add up to its total (six decimals written).
+        assert!((f(beam) + f(diffuse) - f(poa)).abs() < 1e-5, "{rec:?}");
+        assert!(
+            f(t_wb) <= f(t_amb) + 1e-6,
+            "wet-bulb above dry-bulb: {rec:?}"
+        );
+        sunny_plane_hours += usize::from(f(beam) > 0.0 && f(dni) > 0.0);
+        n_rows += 1;
+    }
+    assert!(sunny_plane_hours > 1000, "{sunny_plane_hours}");
+    // Version, scenario, caution and the column meanings are in the sidecar.
+    let meta: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(d.join("hourly.csv.meta.json")).unwrap())
+            .unwrap();
+    assert_eq!(meta["version"], env!("CARGO_PKG_VERSION"));
+    assert_eq!(meta["scenario"], "Port Meridian clinic (demo)");
+    assert!(meta["caution"].as_str().unwrap().contains("Screening"));
+    let names: Vec<&str> = meta["columns"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| {
+            assert!(!c["unit"].as_str().unwrap().is_empty());
+            assert!(!c["meaning"].as_str().unwrap().is_empty());
+            c["name"].as_str().unwrap()
+        })
+        .collect();
+    assert_eq!(names, head.iter().collect::<Vec<_>>());
     let v: serde_json::Value =
         serde_json::from_str(&std::fs::read_to_string(&json).unwrap()).unwrap();
     assert_eq!(v["scenario"], "Port Meridian clinic (demo)");
@@ -140,7 +187,7 @@ fn evaluate_demo_prints_table_and_writes_files() {
         .unwrap()
         .map(|e| e.unwrap().file_name().to_string_lossy().to_string())
         .collect();
-    assert_eq!(names.len(), 2, "{names:?}");
+    assert_eq!(names.len(), 3, "{names:?}");
     std::fs::remove_dir_all(&d).unwrap();
 }
 
@@ -652,4 +699,235 @@ fn calibrate_fits_the_demo_datasheet_and_refuses_a_bad_one() {
     assert_eq!(o.status.code(), Some(2));
     assert!(stderr(&o).contains("datasheet"), "{}", stderr(&o));
     let _ = std::fs::remove_dir_all(&d);
+}
+
+// ---- conventions: `-`, output folders, exit statuses, --quiet, help ----
+
+/// `-` sends each text output of `evaluate` to standard output (no file named `-` appears), and
+/// then the terminal table is not printed; two outputs on standard output are refused.
+#[test]
+fn dash_means_standard_output() {
+    let d = tmp("dash");
+    let office = demo_path("qasr-alvar-office");
+    let office = office.to_str().unwrap();
+    let in_tmp = |args: &[&str]| bin().current_dir(&d).args(args).output().unwrap();
+    let o = in_tmp(&["evaluate", office, "--hourly", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let mut rd = csv::Reader::from_reader(o.stdout.as_slice());
+    assert_eq!(rd.headers().unwrap().get(0), Some("option"));
+    assert_eq!(
+        rd.records().collect::<Result<Vec<_>, _>>().unwrap().len(),
+        7 * 8760
+    );
+    let o = in_tmp(&["evaluate", office, "--markdown", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let t = String::from_utf8_lossy(&o.stdout);
+    // The Markdown alone: no terminal table (box drawing) mixed in.
+    assert!(t.contains("## Caution") && !t.contains('┌'), "{t}");
+    let o = in_tmp(&["evaluate", office, "--report", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let t = String::from_utf8_lossy(&o.stdout);
+    assert!(t.trim_start().starts_with("<!DOCTYPE html>") && t.trim_end().ends_with("</html>"));
+    let o = in_tmp(&["weather", office, "--csv", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    assert_eq!(String::from_utf8_lossy(&o.stdout).lines().count(), 14);
+    let o = in_tmp(&["init", "-"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("[site]"));
+    let o = in_tmp(&["evaluate", office, "--json", "-", "--report", "-"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("only one output"), "{}", stderr(&o));
+    let o = in_tmp(&["evaluate", office, "--xlsx", "-"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--xlsx"), "{}", stderr(&o));
+    let left: Vec<_> = std::fs::read_dir(&d).unwrap().collect();
+    assert!(left.is_empty(), "files written: {left:?}");
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+/// An output whose folder does not exist is refused with exit 2, naming the flag and the path,
+/// before any work: the scenario named after it does not even exist, and the message is about
+/// the output, not the scenario.
+#[test]
+fn output_in_a_missing_folder_is_refused_before_the_run() {
+    let d = tmp("nofolder");
+    let out = d.join("no-such-folder").join("out.x");
+    let out = out.to_str().unwrap();
+    let scen = d.join("not-there.toml");
+    let scen = scen.to_str().unwrap();
+    let cases: [Vec<&str>; 9] = [
+        vec!["evaluate", scen, "--hourly", out],
+        vec!["evaluate", scen, "--json", out],
+        vec!["evaluate", scen, "--markdown", out],
+        vec!["evaluate", scen, "--xlsx", out],
+        vec!["evaluate", scen, "--report", out],
+        vec!["weather", scen, "--csv", out],
+        vec!["sweep", scen, "--set", "a.b=1:2:1", "--out", out],
+        vec!["uncertainty", scen, "--samples", "2", "--out", out],
+        vec!["init", out],
+    ];
+    for args in cases {
+        let o = run(&args);
+        let e = stderr(&o);
+        assert_eq!(o.status.code(), Some(2), "{args:?}: {e}");
+        let flag = args.iter().rev().nth(1).filter(|f| f.starts_with("--"));
+        assert!(
+            e.contains(out) && e.contains("does not exist") && !e.contains("not-there.toml"),
+            "{args:?}: {e}"
+        );
+        if let Some(flag) = flag {
+            assert!(e.contains(flag), "{args:?} names {flag}: {e}");
+        }
+    }
+    // The demo with a good path next to a bad one: nothing written.
+    let good = d.join("h.csv");
+    let o = run(&[
+        "evaluate",
+        demo_path("qasr-alvar-office").to_str().unwrap(),
+        "--hourly",
+        good.to_str().unwrap(),
+        "--report",
+        out,
+    ]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(!good.exists());
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+/// Ctrl-C (SIGINT) stops `sweep` and `uncertainty`: exit 130, the rows finished are written.
+#[cfg(unix)]
+#[test]
+fn ctrl_c_exits_130_and_keeps_rows() {
+    let d = tmp("ctrlc");
+    let office = demo_path("qasr-alvar-office");
+    let office = office.to_str().unwrap();
+    let out = d.join("rows.csv");
+    let full = [
+        (
+            vec![
+                "sweep",
+                office,
+                "--option",
+                "solar-absorption",
+                "--set",
+                "options.solar-absorption.field.gross_area_m2=10:400:1",
+            ],
+            391 * 2,
+        ),
+        (vec!["uncertainty", office, "--samples", "300"], 300 * 7),
+    ];
+    for (args, all_rows) in full {
+        let _ = std::fs::remove_file(&out);
+        let child = bin()
+            .args(&args)
+            .args(["--quiet", "--out", out.to_str().unwrap()])
+            .stdout(std::process::Stdio::null())
+            .stderr(std::process::Stdio::piped())
+            .spawn()
+            .unwrap();
+        std::thread::sleep(std::time::Duration::from_millis(2500));
+        let k = Command::new("kill")
+            .args(["-INT", &child.id().to_string()])
+            .status()
+            .unwrap();
+        assert!(k.success());
+        let o = child.wait_with_output().unwrap();
+        assert_eq!(o.status.code(), Some(130), "{args:?}: {}", stderr(&o));
+        let mut rd = csv::Reader::from_path(&out).unwrap();
+        assert!(rd.headers().unwrap().iter().any(|h| h == "option"));
+        let rows = rd.records().collect::<Result<Vec<_>, _>>().unwrap().len();
+        assert!(rows < all_rows, "{args:?}: stopped early ({rows} rows)");
+    }
+    std::fs::remove_dir_all(&d).unwrap();
+}
+
+/// `size` with a target it cannot reach in the range exits 3 (and says so); a met target 0.
+#[test]
+fn size_unreachable_exits_3() {
+    let office = demo_path("qasr-alvar-office");
+    let o = run(&[
+        "size",
+        office.to_str().unwrap(),
+        "--option",
+        "solar-absorption",
+        "--target",
+        "solar_share_of_cooling=0.99",
+        "--vary",
+        "options.solar-absorption.field.gross_area_m2=10:20",
+    ]);
+    assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("NOT reachable"));
+}
+
+/// Every verb's and substance's `--help`: each argument has a description, and `--quiet` is
+/// accepted everywhere.
+#[test]
+fn every_help_argument_is_described_and_quiet_is_everywhere() {
+    let verbs: [&[&str]; 14] = [
+        &[],
+        &["evaluate"],
+        &["init"],
+        &["weather"],
+        &["size"],
+        &["sweep"],
+        &["sensitivity"],
+        &["uncertainty"],
+        &["calibrate"],
+        &["checks"],
+        &["state", "air"],
+        &["state", "water"],
+        &["state", "libr"],
+        &["state", "fluid"],
+    ];
+    for v in verbs {
+        let o = bin().args(v).arg("--help").output().unwrap();
+        assert_eq!(o.status.code(), Some(0), "{v:?}");
+        let help = String::from_utf8_lossy(&o.stdout);
+        if !v.is_empty() {
+            assert!(help.contains("--quiet"), "{v:?} lacks --quiet: {help}");
+        }
+        let mut in_list = false;
+        for line in help.lines() {
+            if line.ends_with(':') && !line.starts_with(' ') {
+                in_list = ["Arguments:", "Options:", "Commands:"].contains(&line);
+                continue;
+            }
+            let t = line.trim_start();
+            // An argument's line starts at the list's indent: `-x`, `--long`, `<ARG>`, `[ARG]`
+            // or a command name; its description follows after two or more spaces.
+            if !in_list || line.len() - t.len() > 6 || t.is_empty() {
+                continue;
+            }
+            let described = t
+                .split_once("  ")
+                .is_some_and(|(_, d)| !d.trim().is_empty());
+            assert!(described, "{v:?}: `{t}` has no description");
+        }
+    }
+    // --quiet prints nothing on standard output and keeps the exit status.
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "60", "--quiet"]);
+    assert_eq!(o.status.code(), Some(0));
+    assert!(o.stdout.is_empty());
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "140", "--quiet"]);
+    assert_eq!(o.status.code(), Some(2));
+}
+
+/// `state air --rh` is in percent: outside 0–100 refused with that hint; a value that reads
+/// like a fraction runs, with a note that says what the percent would be.
+#[test]
+fn state_air_rh_is_percent() {
+    for bad in ["140", "-5", "NaN", "100.5"] {
+        let o = run(&["state", "air", "--t-c", "32", "--rh", bad]);
+        assert_eq!(o.status.code(), Some(2), "{bad}");
+        let e = stderr(&o);
+        assert!(
+            e.contains("--rh") && e.contains("percent") && e.contains("0 to 100"),
+            "{bad}: {e}"
+        );
+    }
+    let o = run(&["state", "air", "--t-c", "32", "--rh", "0.6", "--json"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!((v["rh_pct"].as_f64().unwrap() - 0.6).abs() < 1e-9);
+    assert!(stderr(&o).contains("give --rh 60"), "{}", stderr(&o));
 }

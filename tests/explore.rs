@@ -217,7 +217,7 @@ fn sensitivity_and_uncertainty_run() {
         "{t}"
     );
     let o = Command::new(env!("CARGO_BIN_EXE_parhelion"))
-        .args(["uncertainty", s, "--samples", "4", "--seed", "3", "--quiet"])
+        .args(["uncertainty", s, "--samples", "4", "--seed", "3"])
         .output()
         .unwrap();
     assert_eq!(
@@ -230,8 +230,15 @@ fn sensitivity_and_uncertainty_run() {
     assert!(t.contains("P10 / P50 / P90") && t.contains("4 of 4"), "{t}");
     // Reproducible for a seed.
     let again = Command::new(env!("CARGO_BIN_EXE_parhelion"))
-        .args(["uncertainty", s, "--samples", "4", "--seed", "3", "--quiet"])
+        .args(["uncertainty", s, "--samples", "4", "--seed", "3"])
         .output()
         .unwrap();
     assert_eq!(o.stdout, again.stdout);
+    // --quiet: the same run prints nothing on standard output.
+    let quiet = Command::new(env!("CARGO_BIN_EXE_parhelion"))
+        .args(["uncertainty", s, "--samples", "1", "--quiet"])
+        .output()
+        .unwrap();
+    assert_eq!(quiet.status.code(), Some(0));
+    assert!(quiet.stdout.is_empty());
 }

@@ -12,9 +12,15 @@ use std::sync::atomic::{AtomicBool, Ordering};
 /// Set by Ctrl-C: running sweeps finish the designs under way and stop.
 pub static STOP: AtomicBool = AtomicBool::new(false);
 
-/// Install the Ctrl-C handler once.
+/// Install the Ctrl-C handler (first thing in `sweep` and `uncertainty`, so an early Ctrl-C is
+/// caught too).
 pub fn catch_interrupt() {
     let _ = ctrlc::set_handler(|| STOP.store(true, Ordering::SeqCst));
+}
+
+/// Whether Ctrl-C stopped the run (the verb then exits 130 after writing what it has).
+pub fn interrupted() -> bool {
+    STOP.load(Ordering::SeqCst)
 }
 
 fn progress(n: usize, quiet: bool) -> ProgressBar {
@@ -143,8 +149,8 @@ pub struct SizeArgs<'a> {
     pub tol: Option<f64>,
 }
 
-/// `parhelion size`.
-pub fn size(a: SizeArgs) -> Result<String, Error> {
+/// `parhelion size`: the text, and whether the target was met (always for `--minimize`).
+pub fn size(a: SizeArgs) -> Result<(String, bool), Error> {
     let study = Study::new(a.scenario)?;
     let vary: Vec<String> = if a.vary.is_empty() {
         vec![default_vary(a.option)]
@@ -163,6 +169,7 @@ pub fn size(a: SizeArgs) -> Result<String, Error> {
         env!("CARGO_PKG_VERSION"),
         a.option
     );
+    let mut met = true;
     match (a.target, a.minimize) {
         (Some(t), None) => {
             let (fig, target) = parse_target(t)?;
@@ -177,12 +184,20 @@ pub fn size(a: SizeArgs) -> Result<String, Error> {
             let (key, lo, hi) = &axes[0];
             let tol = a.tol.unwrap_or(1e-3 * (hi - lo));
             match explore::size_to_target(&study, a.option, &fig, target, key, *lo, *hi, tol)? {
-                SizeResult::Met { value, figure, evaluations } => {
+                SizeResult::Met {
+                    value,
+                    figure,
+                    evaluations,
+                } => {
                     out.push_str(&format!(
                         "{fig} = {target} is met at {key} = {value:.4} ({fig} there: {figure:.4}; ±{tol:.3e} in {key}; {evaluations} annual runs)\n"
                     ));
                     if (figure - target).abs() > 0.01 * target.abs().max(1e-9) {
-                        let above = study.figure_of(&[(key.clone(), study.snap(key, value + tol))], a.option, &fig)?;
+                        let above = study.figure_of(
+                            &[(key.clone(), study.snap(key, value + tol))],
+                            a.option,
+                            &fig,
+                        )?;
                         out.push_str(&format!(
                             "note: {fig} moves in a step here (a field is built of whole rows of modules): just above, at {key} = {:.4}, it is {}\n",
                             value + tol,
@@ -190,10 +205,18 @@ pub fn size(a: SizeArgs) -> Result<String, Error> {
                         ));
                     }
                 }
-                SizeResult::Unreachable { best_value, best_figure, lo, hi } => out.push_str(&format!(
-                    "{fig} = {target} is NOT reachable for {key} in [{:.4}, {:.4}]: {fig} runs from {:.4} to {:.4}. Best reachable: {best_figure:.4} at {key} = {best_value:.4}.\n",
-                    lo.0, hi.0, lo.1, hi.1
-                )),
+                SizeResult::Unreachable {
+                    best_value,
+                    best_figure,
+                    lo,
+                    hi,
+                } => {
+                    met = false;
+                    out.push_str(&format!(
+                        "{fig} = {target} is NOT reachable for {key} in [{:.4}, {:.4}]: {fig} runs from {:.4} to {:.4}. Best reachable: {best_figure:.4} at {key} = {best_value:.4}.\n",
+                        lo.0, hi.0, lo.1, hi.1
+                    ));
+                }
             }
         }
         (None, Some(fig)) => {
@@ -263,7 +286,7 @@ pub fn size(a: SizeArgs) -> Result<String, Error> {
             ));
         }
     }
-    Ok(out)
+    Ok((out, met))
 }
 
 pub struct SweepArgs<'a> {
@@ -295,7 +318,6 @@ pub fn sweep(a: SweepArgs) -> Result<(Vec<u8>, String), Error> {
     let designs = explore::grid(&axes);
     let n = designs.len();
     let pb = progress(n, a.quiet);
-    catch_interrupt();
     let rows = explore::sweep(&study, designs, a.option, &STOP, &|| pb.inc(1));
     pb.finish_and_clear();
     let figures = explore::figure_names();
@@ -425,7 +447,6 @@ pub fn uncertainty(a: UncertaintyArgs) -> Result<(String, Vec<u8>), Error> {
     }
     let designs: Vec<Vec<Edit>> = explore::latin_hypercube(&study, &inputs, a.samples, a.seed);
     let pb = progress(designs.len(), a.quiet);
-    catch_interrupt();
     let rows = explore::sweep(&study, designs, None, &STOP, &|| pb.inc(1));
     pb.finish_and_clear();
     let shown = [

@@ -90,7 +90,10 @@ pub struct PlantOption {
 /// Everything the loop reads that is common to all options.
 pub struct YearInputs<'a> {
     pub conditions: &'a [HourConditions],
+    /// Global horizontal, direct normal and diffuse horizontal irradiance per hour, W/m².
     pub ghi_w_m2: &'a [f64],
+    pub dni_w_m2: &'a [f64],
+    pub dhi_w_m2: &'a [f64],
     pub heat_demand: &'a [HeatDemandHour],
     pub priority: HeatPriority,
     /// Sub-steps per hour ([`SUBSTEPS`]).
@@ -161,7 +164,11 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         let mut rec = HourRecord {
             hour: i,
             t_amb_c: c.t_db_c,
+            t_wb_c: c.t_wb_c,
+            w_kg_kg: c.w_kg_kg,
             ghi_w_m2: y.ghi_w_m2[i],
+            dni_w_m2: y.dni_w_m2[i],
+            dhi_w_m2: y.dhi_w_m2[i],
             load_kwh: c.load.cooling_kw(),
             heat_demand_kwh: hd_all.total_kwh(),
             ..HourRecord::default()
@@ -187,6 +194,8 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         if let Some(s) = solar.as_mut() {
             let poa = s.poa[i];
             rec.poa_w_m2 = poa.total_w_m2();
+            rec.poa_beam_w_m2 = poa.beam_w_m2;
+            rec.poa_diffuse_w_m2 = poa.diffuse_w_m2();
             let stored0 = s.store.stored_j();
             let mut q_collected_j = 0.0;
             let mut q_loss_j = 0.0;

@@ -7,10 +7,20 @@ use crate::routes::Reason;
 pub struct HourRecord {
     /// Hour of the year, 0..8760.
     pub hour: usize,
+    /// Outdoor dry-bulb, °C.
     pub t_amb_c: f64,
+    /// Outdoor wet-bulb, °C, and humidity ratio, kg/kg dry air (the hour's air state).
+    pub t_wb_c: f64,
+    pub w_kg_kg: f64,
+    /// Global horizontal, direct normal and diffuse horizontal irradiance, W/m².
     pub ghi_w_m2: f64,
+    pub dni_w_m2: f64,
+    pub dhi_w_m2: f64,
     /// Total irradiance on the option's collector plane, W/m² (0 without a field).
     pub poa_w_m2: f64,
+    /// Of which beam, and diffuse (sky + ground-reflected), W/m² (0 without a field).
+    pub poa_beam_w_m2: f64,
+    pub poa_diffuse_w_m2: f64,
     /// Cooling load (sensible + latent), kWh.
     pub load_kwh: f64,
     /// Cooling delivered, kWh: the sum of the five `cooling_*` sources below.
@@ -122,8 +132,14 @@ impl Default for HourRecord {
         HourRecord {
             hour: 0,
             t_amb_c: 0.0,
+            t_wb_c: 0.0,
+            w_kg_kg: 0.0,
             ghi_w_m2: 0.0,
+            dni_w_m2: 0.0,
+            dhi_w_m2: 0.0,
             poa_w_m2: 0.0,
+            poa_beam_w_m2: 0.0,
+            poa_diffuse_w_m2: 0.0,
             load_kwh: 0.0,
             cooling_kwh: 0.0,
             cooling_solar_kwh: 0.0,

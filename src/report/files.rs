@@ -21,6 +21,42 @@ pub fn refuse_input(out: &Path, inputs: &[PathBuf]) -> Result<()> {
     Ok(())
 }
 
+/// `-` as an output path: standard output.
+pub fn is_stdout(path: &Path) -> bool {
+    path.as_os_str() == "-"
+}
+
+/// Check an output path before any work is done, so a run is not lost to a typo at its end:
+/// `-` (standard output) passes; otherwise the folder it goes in must exist and the path must
+/// not be a folder. `flag` names the option in the message (`--hourly`).
+pub fn check_output(flag: &str, path: &Path) -> Result<()> {
+    if is_stdout(path) {
+        return Ok(());
+    }
+    if path.is_dir() {
+        return Err(Error::input(
+            flag,
+            path.display(),
+            "is a folder: give a file path (or `-` for standard output)",
+        ));
+    }
+    let dir = path
+        .parent()
+        .filter(|p| !p.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
+    if !dir.is_dir() {
+        return Err(Error::input(
+            flag,
+            path.display(),
+            format!(
+                "the folder `{}` does not exist: create it first, or give `-` for standard output",
+                dir.display()
+            ),
+        ));
+    }
+    Ok(())
+}
+
 /// Write `bytes` to `path` atomically: into a temporary file beside it, flushed, then renamed
 /// over the target, so a reader never sees a half-written file.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<()> {
@@ -69,6 +105,18 @@ mod tests {
         // A folder that does not exist: error, nothing written.
         assert!(write_atomic(&dir.join("no/such/dir.csv"), b"x").is_err());
         assert!(refuse_input(&p, std::slice::from_ref(&p)).is_err());
+        // Output paths checked before a run: `-`, a file in an existing folder pass; a missing
+        // folder or a folder as the file are refused, naming the flag and the path.
+        assert!(check_output("--x", Path::new("-")).is_ok());
+        assert!(check_output("--x", &p).is_ok());
+        assert!(check_output("--x", Path::new("bare-name.csv")).is_ok());
+        let e = check_output("--x", &dir.join("no/such.csv")).unwrap_err();
+        let m = e.to_string();
+        assert!(
+            e.is_bad_input() && m.contains("--x") && m.contains("no/such.csv"),
+            "{m}"
+        );
+        assert!(check_output("--x", &dir).is_err());
         std::fs::remove_dir_all(&dir).unwrap();
     }
 }

@@ -101,13 +101,7 @@ pub fn render(ev: &Evaluation, assumptions: &[String]) -> Result<Vec<u8>> {
     ws.set_freeze_panes(1, 2).map_err(xerr)?;
 
     // hourly: the hourly CSV, cell by cell (numbers written as numbers).
-    let csv_bytes = super::hourly::render(ev)?;
-    let body: Vec<u8> = csv_bytes
-        .split_inclusive(|b| *b == b'\n')
-        .filter(|l| !l.starts_with(b"#"))
-        .flatten()
-        .copied()
-        .collect();
+    let body = super::hourly::render(ev)?;
     let ws = wb.add_worksheet();
     ws.set_name(SHEETS[2]).map_err(xerr)?;
     let mut rd = csv::ReaderBuilder::new()

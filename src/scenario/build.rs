@@ -40,7 +40,10 @@ pub struct Prepared {
     pub weather: WeatherYear,
     pub sun: Vec<SunPosition>,
     pub conditions: Vec<HourConditions>,
+    /// The (scaled) weather year's global, direct normal and diffuse horizontal irradiance, W/m².
     pub ghi_w_m2: Vec<f64>,
+    pub dni_w_m2: Vec<f64>,
+    pub dhi_w_m2: Vec<f64>,
     pub heat_demand: Vec<HeatDemandHour>,
     pub load_origin: String,
 }
@@ -103,6 +106,8 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
     Ok(Prepared {
         site,
         ghi_w_m2: weather.hours.iter().map(|h| h.ghi_w_m2).collect(),
+        dni_w_m2: weather.hours.iter().map(|h| h.dni_w_m2).collect(),
+        dhi_w_m2: weather.hours.iter().map(|h| h.dhi_w_m2).collect(),
         weather,
         sun,
         conditions,
@@ -599,6 +604,8 @@ pub fn run_with_substeps(
     let y = YearInputs {
         conditions: &p.conditions,
         ghi_w_m2: &p.ghi_w_m2,
+        dni_w_m2: &p.dni_w_m2,
+        dhi_w_m2: &p.dhi_w_m2,
         heat_demand: &p.heat_demand,
         priority: l.scenario.heat_priority,
         substeps,
