@@ -15,6 +15,7 @@ pub mod store;
 pub use record::HourRecord;
 
 use crate::components::boiler::Boiler;
+use crate::components::collector::Ambient;
 use crate::components::field::Field;
 use crate::components::tank::Stream;
 use crate::routes::{HeatSupplied, HourConditions, Reason, Route, RouteHour};
@@ -83,6 +84,9 @@ pub struct PlantOption {
 /// Everything the loop reads that is common to all options.
 pub struct YearInputs<'a> {
     pub conditions: &'a [HourConditions],
+    /// What the collectors see of the outdoors each hour: air temperature (the conditions'
+    /// dry-bulb), wind speed and long-wave irradiance (computed once per scenario).
+    pub ambient: &'a [Ambient],
     pub ghi_w_m2: &'a [f64],
     pub heat_demand: &'a [HeatDemandHour],
     pub priority: HeatPriority,
@@ -169,6 +173,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         let mut demand_solar_j = 0.0;
         if let Some(s) = solar.as_mut() {
             let poa = s.poa[i];
+            let amb = y.ambient[i];
             rec.poa_w_m2 = poa.total_w_m2();
             let stored0 = s.store.stored_j();
             let mut q_collected_j = 0.0;
@@ -184,12 +189,9 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 }; MAX_STREAMS];
                 let mut n = 1;
                 let gain_possible = rec.poa_w_m2 > 0.0
-                    && s.field.no_flow_temp_c(
-                        poa.beam_w_m2,
-                        poa.diffuse_w_m2(),
-                        poa.aoi_deg,
-                        c.t_db_c,
-                    ) > t_bot + s.dt_on_k;
+                    && s.field
+                        .no_flow_temp_c(poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, &amb)
+                        > t_bot + s.dt_on_k;
                 if t_top >= s.t_max_c {
                     if gain_possible {
                         rec.stagnation = true;
@@ -199,7 +201,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                     pump_on = true;
                 }
                 if pump_on {
-                    let (flow, t_to_store) = collector_loop(s, &poa, t_bot, c.t_db_c);
+                    let (flow, t_to_store) = collector_loop(s, &poa, t_bot, &amb);
                     if t_to_store - t_bot < s.dt_off_k {
                         pump_on = false;
                     } else {
@@ -392,21 +394,17 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
 /// store. For an indirect loop with equal capacity rates on both sides of an exchanger of
 /// effectiveness ε, the collector inlet is `t_co − ε (t_co − t_store)` and the store receives
 /// `t_store + ε (t_co − t_store)`; the collector inlet is found by fixed-point iteration
-/// (a contraction: the collector outlet rises less than its inlet).
+/// (a contraction: the collector outlet rises less than its inlet). `amb` is the hour's air
+/// temperature, wind and long-wave irradiance ([`Field::run`]).
 fn collector_loop(
     s: &SolarLoop,
     poa: &PlaneIrradiance,
     t_store_c: f64,
-    t_amb_c: f64,
+    amb: &Ambient,
 ) -> (f64, f64) {
     let run = |t_in: f64| {
-        s.field.run(
-            t_in,
-            poa.beam_w_m2,
-            poa.diffuse_w_m2(),
-            poa.aoi_deg,
-            t_amb_c,
-        )
+        s.field
+            .run(t_in, poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, amb)
     };
     match s.hx_effectiveness {
         None => {

@@ -8,6 +8,7 @@
 use super::Loaded;
 use super::schema::*;
 use crate::components::boiler::Boiler;
+use crate::components::collector::Ambient;
 use crate::components::field::Field;
 use crate::components::pcm::{Pcm, PcmSpec};
 use crate::components::pipe::Pipe;
@@ -40,6 +41,9 @@ pub struct Prepared {
     pub weather: WeatherYear,
     pub sun: Vec<SunPosition>,
     pub conditions: Vec<HourConditions>,
+    /// What the collectors see each hour besides the sun: air temperature, wind speed and
+    /// long-wave irradiance (`weather::sky`), the same for every option.
+    pub ambient: Vec<Ambient>,
     pub ghi_w_m2: Vec<f64>,
     pub heat_demand: Vec<HeatDemandHour>,
     pub load_origin: String,
@@ -100,8 +104,22 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
         )
         .collect();
     let heat_demand = heat_demand(s, &load, &file)?;
+    let ambient = crate::weather::sky::outdoor_year(
+        &weather,
+        site.latitude_deg,
+        s.weather.wind_monthly_m_s.as_deref(),
+    )
+    .iter()
+    .zip(&conditions)
+    .map(|(o, c)| Ambient {
+        t_air_c: c.t_db_c,
+        wind_m_s: o.wind_m_s,
+        long_wave_w_m2: o.long_wave_w_m2,
+    })
+    .collect();
     Ok(Prepared {
         site,
+        ambient,
         ghi_w_m2: weather.hours.iter().map(|h| h.ghi_w_m2).collect(),
         weather,
         sun,
@@ -578,6 +596,7 @@ fn solar_loop(
 pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Result<Evaluation> {
     let y = YearInputs {
         conditions: &p.conditions,
+        ambient: &p.ambient,
         ghi_w_m2: &p.ghi_w_m2,
         heat_demand: &p.heat_demand,
         priority: l.scenario.heat_priority,
