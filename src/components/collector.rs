@@ -11,12 +11,14 @@
 //! (m/s), `EL` the long-wave irradiance (W/m²) and `Ta` the air temperature in kelvin.
 //!
 //! Source: ISO 9806:2017, *Solar energy — Solar thermal collectors — Test methods*, the
-//! quasi-dynamic collector model (the standard's text could not be read here: the equation and
-//! its symbols are from memory and as quoted by open-source collector models (the IDEAS
-//! Modelica library's `ISO9806QuasiDynamicHeatLoss` writes the loss as
-//! `ΔT (c1 + c2 ΔT + c3 u) − c4 (EL − σ Ta⁴) + c6 u G`); the units are those printed on
-//! ISO 9806:2017 test data sheets, which label the same coefficients a3 (J/(m³K)), a4 (–),
-//! a5 (J/(m²K)) and a6 (s/m)).
+//! quasi-dynamic collector model. The standard's text could not be read here: the equation and
+//! its symbols are from memory, checked against what could be read: the IDEAS Modelica
+//! library's `ISO9806QuasiDynamicHeatLoss` (citing ISO 9806:2013) writes the heat flow from
+//! the environment as `ΔT (c1 − c2 ΔT + c3 u) + c4 (EL − σ Tenv⁴) − c6 u G`, the same terms and
+//! signs as above if `ΔT = ϑa − ϑm` (its base class's convention, inferred, not read); a published ISO 9806 power-output note
+//! evaluates glazed collectors with `u = 3 m/s` and `EL − σ Ta⁴ = −100 W/m²` (the c4 term is a
+//! loss under a sky colder than the air); and ISO 9806:2017 test data sheets print the units of
+//! the same coefficients, labelled a3 (J/(m³K)), a4 (–), a5 (J/(m²K)) and a6 (s/m).
 //!
 //! What is modelled here is the steady part: every term except `c5 dϑm/dt`. The collector's
 //! effective thermal capacity `c5` is kept in the spec ([`CollectorSpec::c5_j_m2k`]) for the
