@@ -21,7 +21,7 @@
 //! the same coefficients, labelled a3 (J/(m³K)), a4 (–), a5 (J/(m²K)) and a6 (s/m).
 //!
 //! What is modelled here is the steady part: every term except `c5 dϑm/dt`. The collector's
-//! effective thermal capacity `c5` is kept in the spec ([`CollectorSpec::c5_j_m2k`]) for the
+//! effective thermal capacity `c5` is kept in the spec ([`CollectorSpec::c5_j_m2k()`]) for the
 //! plant to carry; [`CollectorSpec::outlet_in`] is a steady energy balance.
 //!
 //! Keys and what they are (a spec given with the steady-state keys alone is the ISO 9806

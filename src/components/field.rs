@@ -95,7 +95,7 @@ impl Field {
 
     /// Effective thermal capacity of all modules, J/K (0 when the collector gives none):
     /// `c5 · area_m2`, c5 in J/(m²K) from `c5_j_m2k` or `1000 · heat_capacity_kj_m2k`
-    /// ([`CollectorSpec::c5_j_m2k`]). Kept for the plant's warm-up energy.
+    /// ([`CollectorSpec::c5_j_m2k()`]). Kept for the plant's warm-up energy.
     pub fn heat_capacity_j_k(&self) -> f64 {
         self.collector.c5_j_m2k().unwrap_or(0.0) * self.area_m2()
     }
