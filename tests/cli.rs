@@ -382,6 +382,31 @@ fn reference_must_be_an_option() {
     assert_bad("ref", &t, &["reference", "did you mean `grid-chiller`"]);
 }
 
+/// An uncovered collector must give its wind and long-wave coefficients (ISO 9806:2017
+/// quasi-dynamic model): one message naming the first missing key, exit 2.
+#[test]
+fn uncovered_collector_without_wind_coefficients() {
+    let t = demo_text().replacen("kind = \"flat-plate\"", "kind = \"uncovered\"", 1);
+    assert_bad(
+        "uncovered",
+        &t,
+        &["collectors.flat-plate.c3_j_m3k", "uncovered", "(missing)"],
+    );
+}
+
+/// Monthly wind means: twelve values, 0–30 m/s.
+#[test]
+fn wind_monthly_out_of_range() {
+    let t = demo_text().replacen(
+        "[weather]\n",
+        "[weather]\nwind_monthly_m_s = [2, 2, 2, 2, 2, 2, 2, 2, 2, 2, 2, -1]\n",
+        1,
+    );
+    assert_bad("wind", &t, &["weather.wind_monthly_m_s[11]"]);
+    let t = demo_text().replacen("[weather]\n", "[weather]\nwind_monthly_m_s = [2, 2]\n", 1);
+    assert_bad("wind-len", &t, &["weather.wind_monthly_m_s"]);
+}
+
 #[test]
 fn unknown_collector_name() {
     let t = demo_text().replace("collector = \"flat-plate\"", "collector = \"flat-plates\"");

@@ -7,13 +7,16 @@
 //! * `collector_hx_ntu.csv` – counterflow ε–NTU, Incropera 7th ed. Table 11.3.
 //! * `collector_pipe.csv` – pipe outlet and loss, Incropera 7th ed. eq. 8.46.
 //! * `collector_hx_factor.csv` – F_R'/F_R, Duffie & Beckman 4th ed. eq. 10.2.3.
+//! * `collector_quasi_dynamic.csv` – the ISO 9806:2017 quasi-dynamic model without the c5 term
+//!   (wind, long-wave): useful power, outlet and no-flow temperature by hand calculation
+//!   (`reference/scripts/make_collector_quasi_dynamic.py`, standard library only).
 //!
 //! Computed checks: the outlet energy balance `ṁ cp ΔT = q(tm)` for every outlet row, the
 //! ε–NTU `Cr → 1` limit, and the perfect-exchanger limit of F_R'/F_R.
 
 use super::Check;
 use super::table::{Row, parse};
-use crate::components::collector::{AreaBasis, CollectorKind, CollectorSpec};
+use crate::components::collector::{Ambient, AreaBasis, CollectorKind, CollectorSpec};
 use crate::components::hx::{collector_hx_factor, effectiveness_counterflow};
 use crate::components::pipe::Pipe;
 use crate::error::{Error, Result};
@@ -22,6 +25,8 @@ const ISO: &str = include_str!("../../reference/collector_iso9806.csv");
 const NTU: &str = include_str!("../../reference/collector_hx_ntu.csv");
 const PIPE: &str = include_str!("../../reference/collector_pipe.csv");
 const HXF: &str = include_str!("../../reference/collector_hx_factor.csv");
+const QD_TABLE: &str = "collector_quasi_dynamic.csv";
+const QD: &str = include_str!("../../reference/collector_quasi_dynamic.csv");
 
 const GROUP: &str = "collector";
 
@@ -29,23 +34,39 @@ const GROUP: &str = "collector";
 pub fn checks() -> Result<Vec<Check>> {
     let mut out = Vec::new();
     iso9806(&mut out)?;
+    quasi_dynamic(&mut out)?;
     ntu(&mut out)?;
     pipe(&mut out)?;
     hx_factor(&mut out)?;
     Ok(out)
 }
 
+/// The table a collector row comes from (the quasi-dynamic table has a wind column).
+fn row_table(row: &Row) -> &'static str {
+    if row.str("wind_m_s").is_ok() {
+        QD_TABLE
+    } else {
+        "collector_iso9806.csv"
+    }
+}
+
+/// A collector spec from a table row: the steady-state columns, and c3, c4, c6 where the table
+/// has them.
 fn spec_from(row: &Row) -> Result<CollectorSpec> {
     let kind = match row.str("kind")? {
         "flat-plate" => CollectorKind::FlatPlate,
         "evacuated-tube" => CollectorKind::EvacuatedTube,
         "concentrating" => CollectorKind::Concentrating,
+        "uncovered" => CollectorKind::Uncovered,
         other => {
             return Err(Error::Internal(format!(
-                "reference/collector_iso9806.csv: unknown kind `{other}`"
+                "reference/{}: unknown kind `{other}`",
+                row_table(row)
             )));
         }
     };
+    // The quasi-dynamic columns, where the table has them.
+    let opt = |key: &str| row.str(key).ok().map(|_| row.f64(key)).transpose();
     let spec = CollectorSpec {
         kind,
         eta0: row.f64("eta0")?,
@@ -58,11 +79,58 @@ fn spec_from(row: &Row) -> Result<CollectorSpec> {
         iam_table: None,
         iam_diffuse: row.f64("iam_diffuse")?,
         heat_capacity_kj_m2k: None,
+        c5_j_m2k: None,
+        c3_j_m3k: opt("c3_j_m3k")?,
+        c4: opt("c4")?,
+        c6_s_m: opt("c6_s_m")?,
         max_temp_c: None,
     };
     spec.validate()
-        .map_err(|e| Error::Internal(format!("reference/collector_iso9806.csv: {e}")))?;
+        .map_err(|e| Error::Internal(format!("reference/{}: {e}", row_table(row))))?;
     Ok(spec)
+}
+
+/// The quasi-dynamic table: the steady-state columns plus c3, c4, c6, wind and long-wave.
+fn quasi_dynamic(out: &mut Vec<Check>) -> Result<()> {
+    for row in parse(QD_TABLE, QD)? {
+        let c = spec_from(&row)?;
+        let (aoi, gb, gd) = (
+            row.f64("aoi_deg")?,
+            row.f64("g_beam_w_m2")?,
+            row.f64("g_diffuse_w_m2")?,
+        );
+        let t = row.f64("t_c")?;
+        let amb = Ambient {
+            t_air_c: row.f64("ta_c")?,
+            wind_m_s: row.f64("wind_m_s")?,
+            long_wave_w_m2: row.f64("long_wave_w_m2")?,
+        };
+        let quantity = row.str("quantity")?;
+        let value = match quantity {
+            "useful_w_m2" => c.useful_in(gb, gd, aoi, t, &amb),
+            "t_out_c" => {
+                let (flow, cp) = (row.f64("flow_kg_s_m2")?, row.f64("cp_j_kgk")?);
+                c.outlet_in(t, flow, cp, gb, gd, aoi, &amb).0
+            }
+            "stagnation_c" => c.stagnation_in(gb, gd, aoi, &amb),
+            other => {
+                return Err(Error::Internal(format!(
+                    "reference/{QD_TABLE}: unknown quantity `{other}`"
+                )));
+            }
+        };
+        let (expected, tolerance, source) = row.expected()?;
+        out.push(Check {
+            group: GROUP,
+            table: QD_TABLE,
+            case: format!("{}, {quantity}", row.str("case")?),
+            value,
+            expected,
+            tolerance,
+            source,
+        });
+    }
+    Ok(())
 }
 
 fn iso9806(out: &mut Vec<Check>) -> Result<()> {

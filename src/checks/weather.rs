@@ -1,6 +1,9 @@
 //! Reference checks for the weather area (see `checks/mod.rs` for the table format).
 //!
 //! * `weather_erbs_pvlib.csv` – Erbs et al. (1982) decomposition against pvlib-python 0.16.1.
+//! * `weather_sky.csv` – the long-wave sky model of `weather::sky` (Swinbank 1963 clear sky,
+//!   Campbell & Norman 1998 all-sky emissivity and cloud cover) by hand calculation
+//!   (`reference/scripts/make_collector_quasi_dynamic.py`, standard library only).
 //! * `weather_synthetic_normals.csv` – the synthetic year of two demo climates reproduces the
 //!   monthly normals it was made from (round trip).
 //! * `computed` – the daily clearness indices of a synthetic month against the quantiles of the
@@ -16,6 +19,8 @@ use crate::weather::{Humidity, MONTH_DAYS, WeatherYear, decompose};
 
 const ERBS_TABLE: &str = "weather_erbs_pvlib.csv";
 const ERBS: &str = include_str!("../../reference/weather_erbs_pvlib.csv");
+const SKY_TABLE: &str = "weather_sky.csv";
+const SKY: &str = include_str!("../../reference/weather_sky.csv");
 const NORMALS_TABLE: &str = "weather_synthetic_normals.csv";
 const NORMALS: &str = include_str!("../../reference/weather_synthetic_normals.csv");
 
@@ -27,7 +32,39 @@ const BENDT_P: [f64; 5] = [0.1, 0.25, 0.5, 0.75, 0.9];
 /// Every weather check.
 pub fn checks() -> crate::Result<Vec<Check>> {
     let mut out = erbs_checks()?;
+    out.extend(sky_checks()?);
     out.extend(synthetic_checks()?);
+    Ok(out)
+}
+
+fn sky_checks() -> crate::Result<Vec<Check>> {
+    use crate::weather::sky;
+    let mut out = Vec::new();
+    for row in parse(SKY_TABLE, SKY)? {
+        let (t, cloud) = (row.f64("t_air_c")?, row.f64("cloud_cover")?);
+        let q = row.str("quantity")?;
+        let value = match q {
+            "clear_emissivity" => sky::swinbank_clear_sky_emissivity(t),
+            "cloud_cover" => sky::cloud_cover_from_clearness(row.f64("kt")?),
+            "long_wave_w_m2" => sky::long_wave_w_m2(t, cloud),
+            "sky_temperature_c" => sky::sky_temperature_c(sky::long_wave_w_m2(t, cloud)),
+            other => {
+                return Err(crate::Error::Internal(format!(
+                    "reference/{SKY_TABLE}: unknown quantity `{other}`"
+                )));
+            }
+        };
+        let (expected, tolerance, source) = row.expected()?;
+        out.push(Check {
+            group: "weather",
+            table: SKY_TABLE,
+            case: format!("sky, {}, {q}", row.str("case")?),
+            value,
+            expected,
+            tolerance,
+            source,
+        });
+    }
     Ok(out)
 }
 

@@ -7,7 +7,7 @@
 //! The pipe length is split half to the supply and half to the return run, both losing heat
 //! to the ambient air temperature.
 
-use super::collector::CollectorSpec;
+use super::collector::{Ambient, CollectorSpec};
 use super::pipe::Pipe;
 use crate::error::Result;
 use crate::validate::{count, in_range, positive};
@@ -94,10 +94,10 @@ impl Field {
     }
 
     /// Effective thermal capacity of all modules, J/K (0 when the collector gives none):
-    /// `1000 · heat_capacity_kj_m2k · area_m2`. The plant uses it for the energy needed to
-    /// warm the field up from its overnight temperature.
+    /// `c5 · area_m2`, c5 in J/(m²K) from `c5_j_m2k` or `1000 · heat_capacity_kj_m2k`
+    /// ([`CollectorSpec::c5_j_m2k()`]). Kept for the plant's warm-up energy.
     pub fn heat_capacity_j_k(&self) -> f64 {
-        self.collector.heat_capacity_kj_m2k.unwrap_or(0.0) * 1000.0 * self.area_m2()
+        self.collector.c5_j_m2k().unwrap_or(0.0) * self.area_m2()
     }
 
     /// Steady state with the pump running: supply pipe (half the length, loss to `ta_c`) →
@@ -109,28 +109,30 @@ impl Field {
     /// * `g_beam_w_m2`, `g_diffuse_w_m2` – beam and diffuse irradiance in the collector
     ///   plane, W/m²
     /// * `aoi_deg` – beam angle of incidence, degrees
-    /// * `ta_c` – ambient air temperature (collectors and pipes), °C
+    /// * `amb` – the hour's air temperature (collectors and pipes), wind speed and long-wave
+    ///   irradiance (collectors)
     ///
     /// Returns the outlet temperature and the heat flows. Gains can be negative: whether to
     /// run is the controller's decision. If the flow is zero (e.g. an unvalidated field with
     /// zero rows), nothing leaves: all heat flows are 0 and `t_out_c` is
     /// [`Self::no_flow_temp_c`]. Does not allocate.
     ///
-    /// Sources: ISO 9806:2017 steady-state model (modules); Incropera 7th ed. eq. 8.46
-    /// (pipes).
+    /// Sources: ISO 9806:2017 quasi-dynamic model without the c5 term
+    /// ([`CollectorSpec::outlet_in`], modules); Incropera 7th ed. eq. 8.46 (pipes).
     pub fn run(
         &self,
         t_in_c: f64,
         g_beam_w_m2: f64,
         g_diffuse_w_m2: f64,
         aoi_deg: f64,
-        ta_c: f64,
+        amb: &Ambient,
     ) -> FieldOutput {
+        let ta_c = amb.t_air_c;
         let flow = self.flow_kg_s();
         let c = flow * self.cp_j_kgk;
         if c.is_nan() || c <= 0.0 {
             return FieldOutput {
-                t_out_c: self.no_flow_temp_c(g_beam_w_m2, g_diffuse_w_m2, aoi_deg, ta_c),
+                t_out_c: self.no_flow_temp_c(g_beam_w_m2, g_diffuse_w_m2, aoi_deg, amb),
                 q_useful_w: 0.0,
                 q_collectors_w: 0.0,
                 q_pipe_loss_w: 0.0,
@@ -143,14 +145,14 @@ impl Field {
         let mut t = t_supply;
         let mut q_w_m2 = 0.0;
         for _ in 0..self.in_series {
-            let (t_out, q) = self.collector.outlet(
+            let (t_out, q) = self.collector.outlet_in(
                 t,
                 module_flow,
                 self.cp_j_kgk,
                 g_beam_w_m2,
                 g_diffuse_w_m2,
                 aoi_deg,
-                ta_c,
+                amb,
             );
             t = t_out;
             q_w_m2 += q;
@@ -168,25 +170,25 @@ impl Field {
     }
 
     /// No-flow (pump off) collector mean temperature, °C, for the differential thermostat:
-    /// the `tm` at which the collector's useful power is zero, root of
-    /// `η0 (Kb Gb + Kd Gd) = a1 Δ + a2 Δ²` (see [`CollectorSpec::stagnation_c`]). Compare it
-    /// with the tank bottom: running can gain heat only if it is warmer.
+    /// the `tm` at which the collector's useful power is zero (see
+    /// [`CollectorSpec::stagnation_in`]: wind and sky terms included). Compare it with the
+    /// tank bottom: running can gain heat only if it is warmer.
     ///
     /// * arguments as in [`Self::run`]
     ///
-    /// Returns `ta_c` without sun. A steady-state estimate: the absorber's warm-up time
-    /// (thermal capacity) is not included.
+    /// Returns the air temperature without sun under a sky at air temperature. A steady-state
+    /// estimate: the absorber's warm-up time (thermal capacity) is not included.
     ///
-    /// Source: ISO 9806:2017 steady-state model with q = 0.
+    /// Source: ISO 9806:2017 quasi-dynamic model without the c5 term, q = 0.
     pub fn no_flow_temp_c(
         &self,
         g_beam_w_m2: f64,
         g_diffuse_w_m2: f64,
         aoi_deg: f64,
-        ta_c: f64,
+        amb: &Ambient,
     ) -> f64 {
         self.collector
-            .stagnation_c(g_beam_w_m2, g_diffuse_w_m2, aoi_deg, ta_c)
+            .stagnation_in(g_beam_w_m2, g_diffuse_w_m2, aoi_deg, amb)
     }
 
     fn modules(&self) -> f64 {
@@ -198,6 +200,10 @@ impl Field {
 mod tests {
     use super::*;
     use crate::components::collector::demo_flat_plate;
+
+    fn still(ta: f64) -> Ambient {
+        Ambient::still(ta)
+    }
 
     fn field(in_series: u32, rows: u32, length_m: f64) -> Field {
         Field {
@@ -232,7 +238,7 @@ mod tests {
             let mut f = field(ns, nr, 0.0);
             f.collector.a1_w_m2k = 0.0;
             f.collector.a2_w_m2k2 = 0.0;
-            let out = f.run(40.0, 0.0, 500.0, 0.0, 20.0);
+            let out = f.run(40.0, 0.0, 500.0, 0.0, &still(20.0));
             let dt = s * f.area_m2() / (f.flow_kg_s() * f.cp_j_kgk);
             assert!(
                 (out.t_out_c - 40.0 - dt).abs() < 1e-12,
@@ -266,8 +272,8 @@ mod tests {
         let mut lin = field(2, 1, 0.0);
         lin.collector.a2_w_m2k2 = 0.0;
         let (two, one) = (
-            lin.run(tin, gb, gd, aoi, ta),
-            double(&lin).run(tin, gb, gd, aoi, ta),
+            lin.run(tin, gb, gd, aoi, &still(ta)),
+            double(&lin).run(tin, gb, gd, aoi, &still(ta)),
         );
         let c = &lin.collector;
         let s = c.eta0 * (c.iam_beam(aoi) * gb + c.iam_diffuse * gd);
@@ -290,8 +296,8 @@ mod tests {
         // quadratic demo collector: nearly equal
         let quad = field(2, 1, 0.0);
         let (two, one) = (
-            quad.run(tin, gb, gd, aoi, ta),
-            double(&quad).run(tin, gb, gd, aoi, ta),
+            quad.run(tin, gb, gd, aoi, &still(ta)),
+            double(&quad).run(tin, gb, gd, aoi, &still(ta)),
         );
         assert!(
             (two.t_out_c - one.t_out_c).abs() < 0.01,
@@ -306,7 +312,7 @@ mod tests {
     #[test]
     fn energy_bookkeeping() {
         let f = field(3, 5, 60.0);
-        let o = f.run(55.0, 650.0, 150.0, 35.0, 18.0);
+        let o = f.run(55.0, 650.0, 150.0, 35.0, &still(18.0));
         assert!((o.q_useful_w - (o.q_collectors_w - o.q_pipe_loss_w)).abs() < 1e-6);
         assert!((o.q_useful_w - o.flow_kg_s * 4180.0 * (o.t_out_c - 55.0)).abs() < 1e-9);
         assert!(o.q_pipe_loss_w > 0.0 && o.q_collectors_w > 0.0);
@@ -324,23 +330,26 @@ mod tests {
     #[test]
     fn edge_inputs_are_finite() {
         let f = field(2, 2, 30.0);
-        let o = f.run(20.0, 0.0, 0.0, 0.0, 20.0);
+        let o = f.run(20.0, 0.0, 0.0, 0.0, &still(20.0));
         assert!((o.t_out_c - 20.0).abs() < 1e-12 && o.q_useful_w.abs() < 1e-9);
-        let o = f.run(60.0, 0.0, 0.0, 100.0, 10.0);
+        let o = f.run(60.0, 0.0, 0.0, 100.0, &still(10.0));
         assert!(o.q_useful_w < 0.0 && o.t_out_c < 60.0 && o.t_out_c > 10.0);
         let mut z = field(2, 2, 30.0);
         z.rows = 0;
-        let o = z.run(60.0, 800.0, 100.0, 10.0, 20.0);
+        let o = z.run(60.0, 800.0, 100.0, 10.0, &still(20.0));
         assert_eq!(o.q_useful_w, 0.0);
-        assert_eq!(o.t_out_c, z.no_flow_temp_c(800.0, 100.0, 10.0, 20.0));
-        assert_eq!(f.no_flow_temp_c(0.0, 0.0, 0.0, 20.0), 20.0);
+        assert_eq!(
+            o.t_out_c,
+            z.no_flow_temp_c(800.0, 100.0, 10.0, &still(20.0))
+        );
+        assert_eq!(f.no_flow_temp_c(0.0, 0.0, 0.0, &still(20.0)), 20.0);
     }
 
     /// The no-flow temperature is where useful power is zero (D&B/ISO 9806 q = 0).
     #[test]
     fn no_flow_temp_zero_gain() {
         let f = field(1, 1, 0.0);
-        let t = f.no_flow_temp_c(700.0, 100.0, 30.0, 25.0);
+        let t = f.no_flow_temp_c(700.0, 100.0, 30.0, &still(25.0));
         assert!(f.collector.useful_w_m2(700.0, 100.0, 30.0, t, 25.0).abs() < 1e-9);
     }
 

@@ -26,14 +26,15 @@ use crate::components::field::Field;
 
 /// Default effective thermal capacity of a collector by kind, kJ/(m²·K) on the collector's
 /// area basis, when the collector gives none: flat plate 7, evacuated tube 12, concentrating
-/// (a receiver tube) 5 (common practice; typical ISO 9806 c5 values of the classes, from
-/// memory).
+/// (a receiver tube) 5, uncovered (a water-filled absorber mat) 10 (common practice; typical
+/// ISO 9806 c5 values of the classes, from memory).
 pub fn default_capacity_kj_m2k(kind: crate::components::collector::CollectorKind) -> f64 {
     use crate::components::collector::CollectorKind as K;
     match kind {
         K::FlatPlate => 7.0,
         K::EvacuatedTube => 12.0,
         K::Concentrating => 5.0,
+        K::Uncovered => 10.0,
     }
 }
 
@@ -55,13 +56,13 @@ pub struct FieldNode {
     pub t_max_c: f64,
 }
 
-/// The hour's plane irradiance and air seen by the field.
+/// The hour's plane irradiance and the outdoors (air, wind, long-wave) seen by the field.
 #[derive(Debug, Clone, Copy)]
 pub struct Sky {
     pub beam_w_m2: f64,
     pub diffuse_w_m2: f64,
     pub aoi_deg: f64,
-    pub t_amb_c: f64,
+    pub amb: crate::components::collector::Ambient,
 }
 
 impl FieldNode {
@@ -72,10 +73,10 @@ impl FieldNode {
             return 0.0;
         }
         let (d_eq, k) = self.idle_law(field, sky);
-        let d0 = self.t_c - sky.t_amb_c;
+        let d0 = self.t_c - sky.amb.t_air_c;
         let d1 = d_eq + (d0 - d_eq) * (-k * dt_s).exp();
         let before = self.t_c;
-        self.t_c = (sky.t_amb_c + d1).min(self.t_max_c.max(before));
+        self.t_c = (sky.amb.t_air_c + d1).min(self.t_max_c.max(before));
         self.capacity_j_k * (self.t_c - before)
     }
 
@@ -90,8 +91,8 @@ impl FieldNode {
             return None;
         }
         let (d_eq, k) = self.idle_law(field, sky);
-        let d0 = self.t_c - sky.t_amb_c;
-        let dt = t_target_c - sky.t_amb_c;
+        let d0 = self.t_c - sky.amb.t_air_c;
+        let dt = t_target_c - sky.amb.t_air_c;
         // Warming towards an equilibrium above the target.
         (d_eq > dt && k > 0.0).then(|| ((d0 - d_eq) / (dt - d_eq)).ln() / k)
     }
@@ -100,20 +101,20 @@ impl FieldNode {
     fn idle_law(&self, field: &Field, sky: &Sky) -> (f64, f64) {
         let c = &field.collector;
         let area = field.area_m2();
-        let s = c
-            .useful_w_m2(
-                sky.beam_w_m2,
-                sky.diffuse_w_m2,
-                sky.aoi_deg,
-                sky.t_amb_c,
-                sky.t_amb_c,
-            )
-            .max(0.0);
+        // The gain at air temperature (optical gain less the wind and long-wave terms of the
+        // quasi-dynamic model; below zero under a cold night sky for an uncovered absorber).
+        let s = c.useful_in(
+            sky.beam_w_m2,
+            sky.diffuse_w_m2,
+            sky.aoi_deg,
+            sky.amb.t_air_c,
+            &sky.amb,
+        );
         let ua_pipe_per_m2 = field.pipe.ua_w_mk * field.pipe.length_m / area.max(1e-9);
-        let b = c.a1_w_m2k + ua_pipe_per_m2;
+        let b = c.linear_loss_w_m2k(&sky.amb) + ua_pipe_per_m2;
         let a2 = c.a2_w_m2k2;
-        let d_eq = 2.0 * s / (b + (b * b + 4.0 * a2 * s).sqrt());
-        let d0 = self.t_c - sky.t_amb_c;
+        let d_eq = 2.0 * s / (b + (b * b + 4.0 * a2 * s.abs()).sqrt());
+        let d0 = self.t_c - sky.amb.t_air_c;
         // Secant slope of the loss `b Δ + a2 |Δ| Δ` between the node and the equilibrium.
         let slope = if (d0 - d_eq).abs() > 1e-12 {
             let f = |d: f64| b * d + a2 * d.abs() * d;
@@ -172,7 +173,7 @@ mod tests {
             beam_w_m2: 600.0,
             diffuse_w_m2: 200.0,
             aoi_deg: 20.0,
-            t_amb_c: 25.0,
+            amb: crate::components::collector::Ambient::still(25.0),
         };
         let s = f
             .collector
@@ -208,9 +209,9 @@ mod tests {
             beam_w_m2: 700.0,
             diffuse_w_m2: 150.0,
             aoi_deg: 30.0,
-            t_amb_c: 30.0,
+            amb: crate::components::collector::Ambient::still(30.0),
         };
-        let t_stag = f.no_flow_temp_c(700.0, 150.0, 30.0, 30.0);
+        let t_stag = f.no_flow_temp_c(700.0, 150.0, 30.0, &sky.amb);
         for t0 in [20.0, 160.0] {
             let mut n = FieldNode {
                 t_c: t0,

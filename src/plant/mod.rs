@@ -16,6 +16,7 @@ pub mod store;
 pub use record::HourRecord;
 
 use crate::components::boiler::Boiler;
+use crate::components::collector::Ambient;
 use crate::components::field::Field;
 use crate::components::tank::Stream;
 use crate::routes::{HeatSupplied, HourConditions, Reason, Route, RouteHour};
@@ -90,6 +91,9 @@ pub struct PlantOption {
 /// Everything the loop reads that is common to all options.
 pub struct YearInputs<'a> {
     pub conditions: &'a [HourConditions],
+    /// What the collectors see of the outdoors each hour: air temperature (the conditions'
+    /// dry-bulb), wind speed and long-wave irradiance (computed once per scenario).
+    pub ambient: &'a [Ambient],
     /// Global horizontal, direct normal and diffuse horizontal irradiance per hour, W/m².
     pub ghi_w_m2: &'a [f64],
     pub dni_w_m2: &'a [f64],
@@ -193,6 +197,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         let mut demand_solar_j = 0.0;
         if let Some(s) = solar.as_mut() {
             let poa = s.poa[i];
+            let amb = y.ambient[i];
             rec.poa_w_m2 = poa.total_w_m2();
             rec.poa_beam_w_m2 = poa.beam_w_m2;
             rec.poa_diffuse_w_m2 = poa.diffuse_w_m2();
@@ -204,7 +209,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 beam_w_m2: poa.beam_w_m2,
                 diffuse_w_m2: poa.diffuse_w_m2(),
                 aoi_deg: poa.aoi_deg,
-                t_amb_c: c.t_db_c,
+                amb,
             };
             for _ in 0..substeps {
                 let (t_top, t_bot) = (s.store.t_top_c(), s.store.t_bottom_c());
@@ -235,7 +240,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                             poa.beam_w_m2,
                             poa.diffuse_w_m2(),
                             poa.aoi_deg,
-                            c.t_db_c,
+                            &amb,
                         );
                         if rec.poa_w_m2 > 0.0 && t_stag > t_bot + s.dt_on_k {
                             rec.stagnation = true;
@@ -254,7 +259,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                                 poa.beam_w_m2,
                                 poa.diffuse_w_m2(),
                                 poa.aoi_deg,
-                                c.t_db_c,
+                                &amb,
                             );
                             (rec.poa_w_m2 > 0.0 && t_nf > t_on).then_some(0.0)
                         };
@@ -272,7 +277,7 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                         }
                     }
                     // Running: the loop's steady state plus what the node releases.
-                    let lp = collector_loop(s, &poa, t_bot, c.t_db_c);
+                    let lp = collector_loop(s, &poa, t_bot, &amb);
                     let fc = lp.flow_kg_s * s.cp_j_kgk;
                     let rise_ss = lp.t_to_store_c - t_bot;
                     let t_run = if node.capacity_j_k > 0.0 && lp.mcp_loop_w_k > 0.0 && fc > 0.0 {
@@ -510,16 +515,17 @@ struct LoopState {
 /// store. For an indirect loop with equal capacity rates on both sides of an exchanger of
 /// effectiveness ε, the collector inlet is `t_co − ε (t_co − t_store)` and the store receives
 /// `t_store + ε (t_co − t_store)`; the collector inlet is found by fixed-point iteration
-/// (a contraction: the collector outlet rises less than its inlet).
-fn collector_loop(s: &SolarLoop, poa: &PlaneIrradiance, t_store_c: f64, t_amb_c: f64) -> LoopState {
+/// (a contraction: the collector outlet rises less than its inlet). `amb` is the hour's air
+/// temperature, wind and long-wave irradiance ([`Field::run`]).
+fn collector_loop(
+    s: &SolarLoop,
+    poa: &PlaneIrradiance,
+    t_store_c: f64,
+    amb: &Ambient,
+) -> LoopState {
     let run = |t_in: f64| {
-        s.field.run(
-            t_in,
-            poa.beam_w_m2,
-            poa.diffuse_w_m2(),
-            poa.aoi_deg,
-            t_amb_c,
-        )
+        s.field
+            .run(t_in, poa.beam_w_m2, poa.diffuse_w_m2(), poa.aoi_deg, amb)
     };
     match s.hx_effectiveness {
         None => {

@@ -8,6 +8,7 @@
 use super::Loaded;
 use super::schema::*;
 use crate::components::boiler::Boiler;
+use crate::components::collector::Ambient;
 use crate::components::field::Field;
 use crate::components::pcm::{Pcm, PcmSpec};
 use crate::components::pipe::Pipe;
@@ -40,6 +41,9 @@ pub struct Prepared {
     pub weather: WeatherYear,
     pub sun: Vec<SunPosition>,
     pub conditions: Vec<HourConditions>,
+    /// What the collectors see each hour besides the sun: air temperature, wind speed and
+    /// long-wave irradiance (`weather::sky`), the same for every option.
+    pub ambient: Vec<Ambient>,
     /// The (scaled) weather year's global, direct normal and diffuse horizontal irradiance, W/m².
     pub ghi_w_m2: Vec<f64>,
     pub dni_w_m2: Vec<f64>,
@@ -103,8 +107,22 @@ pub fn prepare(l: &Loaded) -> Result<Prepared> {
         )
         .collect();
     let heat_demand = heat_demand(s, &load, &file)?;
+    let ambient = crate::weather::sky::outdoor_year(
+        &weather,
+        site.latitude_deg,
+        s.weather.wind_monthly_m_s.as_deref(),
+    )
+    .iter()
+    .zip(&conditions)
+    .map(|(o, c)| Ambient {
+        t_air_c: c.t_db_c,
+        wind_m_s: o.wind_m_s,
+        long_wave_w_m2: o.long_wave_w_m2,
+    })
+    .collect();
     Ok(Prepared {
         site,
+        ambient,
         ghi_w_m2: weather.hours.iter().map(|h| h.ghi_w_m2).collect(),
         dni_w_m2: weather.hours.iter().map(|h| h.dni_w_m2).collect(),
         dhi_w_m2: weather.hours.iter().map(|h| h.dhi_w_m2).collect(),
@@ -562,11 +580,9 @@ fn solar_loop(
     let gross = field.gross_m2();
     // The field's heat capacity: the collectors' effective capacity (ISO 9806 c5, or the
     // class default) on their area basis, plus the pipes and their fluid.
-    let c_collectors = 1000.0
-        * field.collector.heat_capacity_kj_m2k.unwrap_or_else(|| {
-            crate::plant::field_node::default_capacity_kj_m2k(field.collector.kind)
-        })
-        * field.area_m2();
+    let c_collectors = field.collector.c5_j_m2k().unwrap_or_else(|| {
+        1000.0 * crate::plant::field_node::default_capacity_kj_m2k(field.collector.kind)
+    }) * field.area_m2();
     let field_capacity_j_k = c_collectors + f.pipe_heat_capacity_j_mk * f.pipe_length_m;
     Ok((
         SolarLoop {
@@ -588,6 +604,20 @@ fn solar_loop(
     ))
 }
 
+/// What the hour loop reads that every option shares, from a prepared scenario.
+pub fn year_inputs<'a>(l: &Loaded, p: &'a Prepared, substeps: usize) -> YearInputs<'a> {
+    YearInputs {
+        conditions: &p.conditions,
+        ambient: &p.ambient,
+        ghi_w_m2: &p.ghi_w_m2,
+        dni_w_m2: &p.dni_w_m2,
+        dhi_w_m2: &p.dhi_w_m2,
+        heat_demand: &p.heat_demand,
+        priority: l.scenario.heat_priority,
+        substeps,
+    }
+}
+
 /// Run every option of a prepared scenario.
 pub fn run(l: &Loaded, p: &Prepared, built: &[BuiltOption]) -> Result<Evaluation> {
     run_with_substeps(l, p, built, crate::plant::SUBSTEPS)
@@ -601,15 +631,7 @@ pub fn run_with_substeps(
     built: &[BuiltOption],
     substeps: usize,
 ) -> Result<Evaluation> {
-    let y = YearInputs {
-        conditions: &p.conditions,
-        ghi_w_m2: &p.ghi_w_m2,
-        dni_w_m2: &p.dni_w_m2,
-        dhi_w_m2: &p.dhi_w_m2,
-        heat_demand: &p.heat_demand,
-        priority: l.scenario.heat_priority,
-        substeps,
-    };
+    let y = year_inputs(l, p, substeps);
     let options = built
         .iter()
         .map(|b| {

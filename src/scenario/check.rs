@@ -170,6 +170,9 @@ fn weather(s: &WeatherSection) -> Result<()> {
         10.0,
         "shift of every dry-bulb, K",
     )?;
+    if let Some(w) = &s.wind_monthly_m_s {
+        crate::weather::sky::validate_wind_monthly("wind_monthly_m_s", w)?;
+    }
     match s.source {
         WeatherSource::Synthetic => match &s.synthetic {
             Some(n) => n.validate().map_err(|e| e.within("", "synthetic")),

@@ -145,6 +145,10 @@ pub struct WeatherSection {
     /// above the dry-bulb.
     #[serde(default)]
     pub temperature_shift_k: f64,
+    /// Monthly mean wind speeds, m/s, 12 values (January first), for the hours the weather
+    /// gives no wind (a synthetic year never does); without them 2 m/s
+    /// (`weather::sky::DEFAULT_WIND_M_S`). Read by collectors with wind coefficients.
+    pub wind_monthly_m_s: Option<Vec<f64>>,
     pub synthetic: Option<MonthlyNormals>,
     pub file: Option<FileSpec>,
 }

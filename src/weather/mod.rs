@@ -7,6 +7,7 @@
 
 pub mod decompose;
 pub mod file;
+pub mod sky;
 pub mod synthetic;
 
 /// Hours in the simulated year (leap days are dropped on import).
