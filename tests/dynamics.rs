@@ -126,3 +126,73 @@ fn dead_band_costs_little() {
         }
     }
 }
+
+/// Machine starts cost their thermal mass's warm-up: in every start hour of the clinic's
+/// absorption and Rankine options the ledger's start-up heat is `C (t_drive − t_room)` with
+/// `C` the route's thermal mass (whenever the hour's heat covered it), and the year's start-up
+/// heat is the sum over its starts — N starts, N warm-ups.
+#[test]
+fn starts_cost_their_warm_up() {
+    let l = scenario::load(&path("port-meridian-clinic")).unwrap();
+    let p = build::prepare(&l).unwrap();
+    let built = build::build_options(&l, &p).unwrap();
+    let ev = build::run(&l, &p, &built).unwrap();
+    for opt in ["solar-absorption", "solar-rankine"] {
+        let b = built.iter().find(|b| b.plant.name == opt).unwrap();
+        let c_kj_k = b.plant.route.start_up().unwrap().thermal_mass_kj_k;
+        let t_room = b.plant.solar.as_ref().unwrap().t_room_c;
+        let o = ev.options.iter().find(|o| o.option == opt).unwrap();
+        let (mut n, mut sum) = (0u32, 0.0);
+        for r in &o.hours {
+            if r.machine_starts == 0 {
+                assert_eq!(r.startup_heat_kwh, 0.0);
+                continue;
+            }
+            n += 1;
+            sum += r.startup_heat_kwh;
+            if let Some(t_drive) = r.t_drive_c {
+                let want = c_kj_k * (t_drive - t_room) / 3600.0;
+                assert!(
+                    (r.startup_heat_kwh - want).abs() <= 1e-9 * want.max(1.0),
+                    "{opt} hour {}: {} vs {want}",
+                    r.hour,
+                    r.startup_heat_kwh
+                );
+            }
+        }
+        assert!(n > 50, "{opt}: {n} starts");
+        assert_eq!(o.annual.machine_starts, n);
+        assert!((o.annual.startup_heat_kwh - sum).abs() < 1e-9 * sum.max(1.0));
+    }
+}
+
+/// A minimum off time holds: with `min_off_h = 12` no start follows a stop by fewer than twelve
+/// hours without driving heat, and the machine starts less often (the demo's machine restarts
+/// after 7–11 h off on about fifty mornings).
+#[test]
+fn minimum_off_time_holds() {
+    let study = Study::new(&path("port-meridian-clinic")).unwrap();
+    let opt = "solar-absorption";
+    let starts = |edits: &[(String, f64)]| {
+        let ev = study.evaluate(edits, Some(opt)).unwrap();
+        ev.options.into_iter().find(|o| o.option == opt).unwrap()
+    };
+    let free = starts(&[]);
+    let held = starts(&[(format!("options.{opt}.absorption.starts.min_off_h"), 12.0)]);
+    assert!(held.annual.machine_starts < free.annual.machine_starts);
+    let h = &held.hours;
+    for i in 1..h.len() {
+        if h[i].machine_starts == 1 {
+            // hours without driving heat just before this start
+            let rest = h[..i]
+                .iter()
+                .rev()
+                .take_while(|r| r.heat_to_route_kwh <= 0.0)
+                .count();
+            assert!(
+                rest >= 12 || rest == i,
+                "hour {i}: restarted after {rest} h off"
+            );
+        }
+    }
+}

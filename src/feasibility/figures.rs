@@ -17,6 +17,8 @@ pub enum Unit {
     Ratio,
     /// Hours, whole.
     Hours,
+    /// A count, whole.
+    Count,
     /// m³ of water, whole.
     Water,
     /// kg of CO2 stored, t shown (one decimal).
@@ -45,6 +47,7 @@ impl Unit {
             Unit::Fraction => "%".into(),
             Unit::Ratio => "".into(),
             Unit::Hours => "h".into(),
+            Unit::Count => "".into(),
             Unit::Water => "m³".into(),
             Unit::Co2 => "t".into(),
             Unit::Power => "kW".into(),
@@ -337,6 +340,18 @@ pub const FIGURES: &[Figure] = &[
         "stagnation",
         Hours,
         "Hours the field could gain heat but the store was at its maximum."
+    ),
+    fig!(
+        machine_starts,
+        "starts",
+        Count,
+        "Starts of the heat-driven machine (an hour with driving heat after one without)."
+    ),
+    fig!(
+        startup_heat_kwh,
+        "start-up heat",
+        Energy,
+        "Driving heat that warmed the machine's thermal mass from the plant room to its drive temperature at each start (thermal mass × rise; part of the heat to the route, so the thermal COP carries it)."
     ),
     // Energy and emissions.
     fig!(opt primary_energy_kwh, "primary energy", Energy,

@@ -66,6 +66,9 @@ pub struct Totals {
     /// Heat collected per m² of gross collector area, kWh/m².
     pub collector_yield_kwh_m2: Option<f64>,
     pub stagnation_hours: u32,
+    /// Starts of the heat-driven machine, and the driving heat they took, kWh.
+    pub machine_starts: u32,
+    pub startup_heat_kwh: f64,
     pub unmet_hours: u32,
     pub pump_hours: f64,
     /// Largest hourly store balance error relative to the energy stored.
@@ -138,6 +141,8 @@ impl Totals {
             t.heat_rejected_kwh += r.heat_rejected_kwh;
             t.store_loss_kwh += r.store_loss_kwh;
             t.stagnation_hours += u32::from(r.stagnation);
+            t.machine_starts += r.machine_starts;
+            t.startup_heat_kwh += r.startup_heat_kwh;
             t.unmet_hours += u32::from(r.unmet_kwh > 1e-6);
             t.pump_hours += r.pump_hours;
             t.max_balance_error_rel = t.max_balance_error_rel.max(r.balance_error_rel);

@@ -155,8 +155,14 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
         capacity_j_k: solar.as_ref().map_or(0.0, |s| s.field_capacity_j_k),
         t_max_c: solar.as_ref().map_or(f64::INFINITY, |s| s.t_max_c),
     };
-    // The heat-driven machine's cut-in control (hysteresis on the store's top).
+    // The heat-driven machine's cut-in control (hysteresis on the store's top), its start-up
+    // cost and run/off limits: hours it has run, or rested, in a row.
     let mut enabled = false;
+    let start_up = opt.route.start_up();
+    let (min_run_h, min_off_h) = start_up.map_or((1, 0), |s| (s.min_run_h, s.min_off_h));
+    let mut running = false;
+    let mut run_h = 0u32;
+    let mut off_h = u32::MAX;
     let mut out = Vec::with_capacity(y.conditions.len());
     for (i, c) in y.conditions.iter().enumerate() {
         let hd = if opt.serves_heat_demand {
@@ -184,10 +190,11 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
             (Some((cut_in, cut_out)), Some(t)) => {
                 if t >= cut_in {
                     enabled = true;
-                } else if t < cut_out {
+                } else if t < cut_out && run_h >= min_run_h {
                     enabled = false;
                 }
-                enabled.then_some(t)
+                // A stopped machine rests its minimum off time before it may start again.
+                (enabled && (running || off_h >= min_off_h)).then_some(t)
             }
             (Some(_), None) => None,
             (None, t) => t,
@@ -427,8 +434,33 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 },
             }
         });
-        let rh: RouteHour = opt.route.run(c, t_route, heat);
+        // A start: the machine's thermal mass is warmed from the plant room to the drive
+        // temperature with the first driving heat it gets (the rest drives it).
+        let given = heat.map_or(0.0, |h| h.solar_kwh + h.backup_kwh);
+        let mut heat_to_run = heat;
+        if let (Some(su), Some(r), false) = (start_up, request, running)
+            && given > 0.0
+        {
+            let t_idle = solar.as_ref().map_or(c.t_db_c, |s| s.t_room_c);
+            let need = su.thermal_mass_kj_k * (r.t_supply_c - t_idle).max(0.0) / 3600.0;
+            rec.startup_heat_kwh = need.min(given);
+            rec.machine_starts = 1;
+            let keep = (given - rec.startup_heat_kwh) / given;
+            heat_to_run = heat.map(|h| HeatSupplied {
+                solar_kwh: h.solar_kwh * keep,
+                backup_kwh: h.backup_kwh * keep,
+            });
+        }
+        let rh: RouteHour = opt.route.run(c, t_route, heat_to_run);
         let (heat_solar, heat_backup) = heat.map_or((0.0, 0.0), |h| (h.solar_kwh, h.backup_kwh));
+        running = given > 0.0;
+        if running {
+            run_h = run_h.saturating_add(1);
+            off_h = 0;
+        } else {
+            off_h = off_h.saturating_add(1);
+            run_h = 0;
+        }
         rec.heat_to_route_kwh = heat_solar + heat_backup;
         rec.route_solar_kwh = heat_solar;
         rec.backup_heat_kwh += heat_backup;
@@ -493,7 +525,8 @@ pub fn simulate(opt: &PlantOption, y: &YearInputs) -> Vec<HourRecord> {
                 - rec.store_delta_kwh
                 - hd_all.total_kwh()
                 - boiler_loss
-                - rec.pump_kwh;
+                - rec.pump_kwh
+                - rec.startup_heat_kwh;
         out.push(rec);
     }
     out

@@ -69,9 +69,15 @@ pub struct HourRecord {
     pub store_loss_kwh: f64,
     /// Change of the energy stored over the hour, kWh.
     pub store_delta_kwh: f64,
+    /// 1 in an hour the heat-driven machine started (it had no driving heat the hour before).
+    pub machine_starts: u32,
+    /// Driving heat that warmed the machine's thermal mass at a start (lost to the plant
+    /// room as it cools down later), kWh.
+    pub startup_heat_kwh: f64,
     /// Plant first law over the hour, kWh: solar heat + fuel + electricity + cooling (heat
     /// removed from the building) − heat rejected − store loss − Δstored − heat delivered to
-    /// the heat demand − boiler loss − collector-pump electricity. Zero but for round-off.
+    /// the heat demand − boiler loss − collector-pump electricity − start-up heat. Zero but
+    /// for round-off.
     pub plant_balance_kwh: f64,
     /// Store mean and top temperature at the end of the hour, °C.
     pub t_store_c: Option<f64>,
@@ -164,6 +170,8 @@ impl Default for HourRecord {
             heat_rejected_kwh: 0.0,
             store_loss_kwh: 0.0,
             store_delta_kwh: 0.0,
+            machine_starts: 0,
+            startup_heat_kwh: 0.0,
             plant_balance_kwh: 0.0,
             t_store_c: None,
             t_store_top_c: None,

@@ -237,6 +237,18 @@ pub const RECORD_COLUMNS: &[Column] = &[
         |r| num(r.plant_balance_kwh),
     ),
     col(
+        "machine_starts",
+        "0/1",
+        "1: the heat-driven machine started this hour",
+        |r| r.machine_starts.to_string(),
+    ),
+    col(
+        "startup_heat_kwh",
+        "kWh",
+        "driving heat that warmed the machine's thermal mass at a start",
+        |r| num(r.startup_heat_kwh),
+    ),
+    col(
         "stagnation",
         "0/1",
         "1: the field could have gained heat but the store was at its maximum",

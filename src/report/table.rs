@@ -139,6 +139,8 @@ pub const TABLES: [(&str, &[&str]); 6] = [
             "solar_fraction_heat_demand",
             "backup_heat_kwh",
             "stagnation_hours",
+            "machine_starts",
+            "startup_heat_kwh",
         ],
     ),
     (

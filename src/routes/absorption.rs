@@ -149,7 +149,16 @@ pub struct AbsorptionSpec {
     /// year; a fit beyond the bounds is refused.
     #[serde(default)]
     pub datasheet: Option<String>,
+    /// Start-up cost and run/off limits (`[…absorption.starts]`; default thermal mass
+    /// [`THERMAL_MASS_KJ_K_PER_KW`]).
+    #[serde(default)]
+    pub starts: super::StartSpec,
 }
+
+/// Default thermal mass a single-effect machine warms at each start, kJ/K per kW of rated
+/// cooling: its generator, solution and hot-water circuit, about a third of a small machine's
+/// roughly 25 kJ/(K·kW) (an assumption, common practice, from memory; listed in reports).
+pub const THERMAL_MASS_KJ_K_PER_KW: f64 = 8.0;
 
 impl AbsorptionSpec {
     /// Check every key (names relative to the section).
@@ -184,6 +193,7 @@ impl AbsorptionSpec {
             130.0,
             "highest generator supply, °C (at least the rating supply)",
         )?;
+        self.starts.validate()?;
         validate::in_range(
             "cryst_margin_min_k",
             self.cryst_margin_min_k,
@@ -535,6 +545,14 @@ impl Absorption {
 impl Route for Absorption {
     fn kind(&self) -> &'static str {
         "absorption"
+    }
+
+    fn start_up(&self) -> Option<super::StartUp> {
+        Some(
+            self.spec
+                .starts
+                .build(self.spec.capacity_kw, THERMAL_MASS_KJ_K_PER_KW),
+        )
     }
 
     fn cut_in_out_c(&self) -> Option<(f64, f64)> {

@@ -223,7 +223,17 @@ pub struct DesiccantSpec {
     /// `report`.
     #[serde(default)]
     pub unmet: Unmet,
+    /// Start-up cost and run/off limits (`[…desiccant.starts]`; default thermal mass
+    /// [`THERMAL_MASS_KJ_K_PER_KW`] per kW of the unit's nominal cooling,
+    /// [`Desiccant::nominal_kw`]).
+    #[serde(default)]
+    pub starts: super::StartSpec,
 }
+
+/// Default thermal mass a desiccant unit warms at each start (regeneration coil, wheel and
+/// casing), kJ/K per kW of its nominal cooling (an assumption, common practice, from memory;
+/// listed in reports).
+pub const THERMAL_MASS_KJ_K_PER_KW: f64 = 2.0;
 
 impl DesiccantSpec {
     /// Typical unit of the class for a supply flow, m³/h (all defaults; demo values).
@@ -247,11 +257,13 @@ impl DesiccantSpec {
             coil_water_dt_k: d_water_dt(),
             w_room_kg_kg: d_w_room(),
             unmet: Unmet::BackupChiller,
+            starts: super::StartSpec::default(),
         }
     }
 
     /// Check every key; errors name the key (relative to the section), value and range.
     pub fn validate(&self) -> Result<()> {
+        self.starts.validate()?;
         validate::positive(
             "supply_flow_m3_h",
             self.supply_flow_m3_h,
@@ -1028,9 +1040,25 @@ impl Desiccant {
     }
 }
 
+impl Desiccant {
+    /// Nominal cooling of the unit for its start-up mass, kW: its supply air cooled by 12 K
+    /// (`ṁ · 1.006 kJ/(kg·K) · 12 K`; a stated basis, not a rating).
+    pub fn nominal_kw(&self) -> f64 {
+        self.m_supply_kg_s * 1.006 * 12.0
+    }
+}
+
 impl Route for Desiccant {
     fn kind(&self) -> &'static str {
         "desiccant"
+    }
+
+    fn start_up(&self) -> Option<super::StartUp> {
+        Some(
+            self.spec
+                .starts
+                .build(self.nominal_kw(), THERMAL_MASS_KJ_K_PER_KW),
+        )
     }
 
     /// With a backup chiller the wheel regenerates on store heat alone: the plant enables it

@@ -294,6 +294,89 @@ impl<T: Default + Copy> Memo<T> {
     }
 }
 
+/// What a start of a heat-driven machine costs and how long it must run and rest, as a
+/// scenario writes it (`[options.NAME.<route>.starts]`).
+#[derive(Debug, Clone, Copy, PartialEq, serde::Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct StartSpec {
+    /// Thermal mass warmed from the plant room to the drive temperature at each start, kJ/K
+    /// per kW of the machine's rated cooling (default: the route's, stated in its docs).
+    #[serde(default)]
+    pub thermal_mass_kj_k_per_kw: Option<f64>,
+    /// Hours the machine stays enabled once started, even if the store falls below its
+    /// cut-out (default 1: no constraint beyond the hour).
+    #[serde(default = "one_hour")]
+    pub min_run_h: u32,
+    /// Hours the machine stays off once stopped (default 0).
+    #[serde(default)]
+    pub min_off_h: u32,
+}
+
+fn one_hour() -> u32 {
+    1
+}
+
+impl Default for StartSpec {
+    fn default() -> Self {
+        StartSpec {
+            thermal_mass_kj_k_per_kw: None,
+            min_run_h: 1,
+            min_off_h: 0,
+        }
+    }
+}
+
+impl StartSpec {
+    /// Check the keys: thermal mass 0..200 kJ/(K·kW), minimum run 1..24 h, minimum off
+    /// 0..24 h.
+    pub fn validate(&self) -> crate::Result<()> {
+        if let Some(m) = self.thermal_mass_kj_k_per_kw {
+            crate::validate::in_range(
+                "starts.thermal_mass_kj_k_per_kw",
+                m,
+                0.0,
+                200.0,
+                "thermal mass warmed at each start, kJ/K per kW of rated cooling",
+            )?;
+        }
+        crate::validate::count(
+            "starts.min_run_h",
+            self.min_run_h,
+            1,
+            24,
+            "hours the machine stays enabled once started",
+        )?;
+        crate::validate::count(
+            "starts.min_off_h",
+            self.min_off_h,
+            0,
+            24,
+            "hours the machine stays off once stopped",
+        )
+    }
+
+    /// The built start-up of a machine of `capacity_kw` whose class default is
+    /// `default_kj_k_per_kw`.
+    pub fn build(&self, capacity_kw: f64, default_kj_k_per_kw: f64) -> StartUp {
+        StartUp {
+            thermal_mass_kj_k: self.thermal_mass_kj_k_per_kw.unwrap_or(default_kj_k_per_kw)
+                * capacity_kw,
+            min_run_h: self.min_run_h,
+            min_off_h: self.min_off_h,
+        }
+    }
+}
+
+/// A heat-driven machine's start: the heat its thermal mass takes to reach the drive
+/// temperature, and its run/off limits (applied by the plant loop).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct StartUp {
+    /// kJ/K.
+    pub thermal_mass_kj_k: f64,
+    pub min_run_h: u32,
+    pub min_off_h: u32,
+}
+
 /// A cooling route stepped by the plant loop.
 pub trait Route: Send + Sync {
     /// Route name as written in the scenario (`electric`, ...).
@@ -304,6 +387,11 @@ pub trait Route: Send + Sync {
     /// below the cut-out; while disabled it passes `t_store_top_c = None`. `None` (the
     /// default) for routes that need no heat or whose boiler lifts the store's water.
     fn cut_in_out_c(&self) -> Option<(f64, f64)> {
+        None
+    }
+    /// A heat-driven machine's start-up cost and run/off limits; `None` for routes that need
+    /// no heat.
+    fn start_up(&self) -> Option<StartUp> {
         None
     }
     /// Heat wanted from the store this hour (see module docs). `t_store_top_c` is `None` when

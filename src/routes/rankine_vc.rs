@@ -234,7 +234,16 @@ pub struct RankineVcSpec {
     /// `backup-chiller` or `unmet` (default backup-chiller).
     #[serde(default = "d_shortfall")]
     pub shortfall: Shortfall,
+    /// Start-up cost and run/off limits (`[…rankine_vc.starts]`; default thermal mass
+    /// [`THERMAL_MASS_KJ_K_PER_KW`]).
+    #[serde(default)]
+    pub starts: super::StartSpec,
 }
+
+/// Default thermal mass an engine warms at each start (evaporator, expander, hot-water
+/// circuit), kJ/K per kW of the chiller's rated cooling (an assumption, common practice, from
+/// memory; listed in reports).
+pub const THERMAL_MASS_KJ_K_PER_KW: f64 = 5.0;
 
 fn fluid(key: &str, name: &str) -> Result<Fluid> {
     Fluid::from_name(name).map_err(|e| match e {
@@ -349,6 +358,7 @@ impl RankineVcSpec {
         if let Some(c) = self.capacity_kw {
             validate::positive("capacity_kw", c, 1e5, "design cooling capacity, kW")?;
         }
+        self.starts.validate()?;
         if let Some(t) = self.t_chw_supply_c {
             validate::in_range("t_chw_supply_c", t, 0.0, 20.0, "chilled-water supply, °C")?;
         }
@@ -379,6 +389,8 @@ pub struct RankineVc {
     pub t_cut_in_c: f64,
     pub t_cut_out_c: f64,
     pub shortfall: Shortfall,
+    /// Start-up cost and run/off limits.
+    pub start: super::StartUp,
     /// Engine design shaft power, kW (drives the compressor at design capacity).
     pub engine_shaft_design_kw: f64,
     /// The wet cooling tower both cycles reject heat through (`sink = "wet"`), sized at the
@@ -506,6 +518,7 @@ pub fn build(spec: &RankineVcSpec, baseline: &ChillerSpec) -> Result<RankineVc> 
         t_cut_in_c: t_cut_in,
         t_cut_out_c: t_cut_out,
         shortfall: spec.shortfall,
+        start: spec.starts.build(cap, THERMAL_MASS_KJ_K_PER_KW),
         engine_shaft_design_kw: cap / design.point.cop / spec.eta_mech,
     })
 }
@@ -722,6 +735,10 @@ impl Route for RankineVc {
 
     fn cut_in_out_c(&self) -> Option<(f64, f64)> {
         Some((self.t_cut_in_c, self.t_cut_out_c))
+    }
+
+    fn start_up(&self) -> Option<super::StartUp> {
+        Some(self.start)
     }
 
     fn heat_request(&self, c: &HourConditions, t_store_top_c: Option<f64>) -> Option<HeatRequest> {

@@ -71,7 +71,8 @@ pub fn assumptions(s: &Scenario) -> Vec<String> {
             "Primary energy factors: electricity {}, fuel {}; CO2 {} kg/kWh electricity, {} kg/kWh fuel (scenario values; defaults indicative).",
             e.pe_factor_electricity, e.pe_factor_fuel, e.co2_kg_per_kwh_electricity, e.co2_kg_per_kwh_fuel
         ),
-        "Solar fraction = solar heat used / all driving heat used (route and heat demand).".into(),
+        "Like for like: every backup chiller is the reference's chiller plant ([baseline]: chiller, tower with a variable-speed fan holding wet-bulb + design approach, condenser- and chilled-water pumps), run by the same code; heat-driven cooling splits between solar and backup heat by the driving heat each gave; solar share of cooling = cooling from solar heat or own PV / cooling load; thermal COP = heat-driven cooling / driving heat.".into(),
+        "Plant: 8 sub-steps per hour; the collector field carries its heat capacity (ISO 9806 c5, or 7/12/5/10 kJ/(m²K) for flat-plate/evacuated-tube/concentrating/uncovered when not given, plus 2300 J/(m·K) of pipe by default: common practice, from memory); machines on store heat alone draw only at or above their supply (store top less 2 K) between cut-in and cut-out temperatures.".into(),
         format!(
             "Weather: {:?}; building load: {:?}; site latitude {}°, longitude {}°, elevation {} m.",
             s.weather.source, s.load.source, s.site.latitude_deg, s.site.longitude_deg, s.site.elevation_m
@@ -99,6 +100,38 @@ pub fn assumptions(s: &Scenario) -> Vec<String> {
             v.push(format!(
                 "Option {name}: desiccant wheel F1/F2 effectivenesses {}/{} — {source}{credit}.",
                 d.eps_f1, d.eps_f2
+            ));
+        }
+        let starts = o
+            .absorption
+            .as_ref()
+            .map(|a| {
+                (
+                    a.starts,
+                    crate::routes::absorption::THERMAL_MASS_KJ_K_PER_KW,
+                )
+            })
+            .or(o.rankine_vc.as_ref().map(|r| {
+                (
+                    r.starts,
+                    crate::routes::rankine_vc::THERMAL_MASS_KJ_K_PER_KW,
+                )
+            }))
+            .or(o
+                .desiccant
+                .as_ref()
+                .map(|d| (d.starts, crate::routes::desiccant::THERMAL_MASS_KJ_K_PER_KW)));
+        if let Some((st, default)) = starts {
+            v.push(format!(
+                "Option {name}: each start warms the machine's thermal mass, {} kJ/K per kW of rated cooling ({}), from the plant room to its drive temperature; minimum run {} h, minimum off {} h.",
+                st.thermal_mass_kj_k_per_kw.unwrap_or(default),
+                if st.thermal_mass_kj_k_per_kw.is_some() {
+                    "scenario value"
+                } else {
+                    "default, an assumption"
+                },
+                st.min_run_h,
+                st.min_off_h
             ));
         }
         if let Some(d) = o.absorption.as_ref().and_then(|a| a.datasheet.as_ref()) {
