@@ -1,13 +1,19 @@
 //! The hour loop: couples each option's solar field, store, cooling route, heat demand and
-//! backup boiler, and keeps the energy books.
+//! backup boiler, and keeps the energy books — the ledger of [`HourRecord`].
 //!
-//! Per hour, in `SUBSTEPS` equal sub-steps (7.5 min): the differential thermostat decides
-//! whether the collector pump runs; the field is solved for its outlet at the store's bottom
-//! temperature (through the loop heat exchanger when there is one); the route's and the heat
-//! demand's draws are planned from the store's top temperature; the store is stepped with all
-//! streams at once (it sub-steps further inside where a node would go unstable). What the
-//! store could not give, the boiler gives. Every hour records the store's balance
-//! `in − out − losses − Δstored` as its closure error.
+//! Per hour: the machine's cut-in control (hysteresis on the store's top, minimum run and off
+//! times) decides whether a route on store heat alone may draw; the route says what heat it
+//! wants and at what supply. Then in `SUBSTEPS` equal sub-steps (7.5 min): the collector
+//! thermostat acts within the sub-step on the field's heat-capacity node ([`field_node`]):
+//! a stopped field warms until it is `dt_on_k` above the store's bottom, a running loop (solved
+//! at steady state for its outlet at the store's bottom, through the loop heat exchanger when
+//! there is one) stops when its outlet rise decays to `dt_off_k`; the route's and the heat
+//! demand's draws are planned from the store's top (no store heat below a route's supply unless
+//! its boiler lifts it) and throttled to their plan; the store is stepped with all streams at
+//! once (it sub-steps further inside where a node would go unstable). What the store could not
+//! give, the boiler gives where the route allows. A start of the machine takes its warm-up heat
+//! from the driving heat. The ledger splits cooling by source and electricity by use; every
+//! hour records the store's balance `in − out − losses − Δstored` and the plant's first law.
 
 pub mod field_node;
 pub mod record;
