@@ -337,7 +337,7 @@ fn chart_monthly_cooling(ev: &Evaluation) -> String {
 }
 
 /// (2) Monthly solar share of cooling per option with a collector field or own PV (lines).
-fn chart_monthly_solar_fraction(ev: &Evaluation) -> String {
+fn chart_monthly_solar_share(ev: &Evaluation) -> String {
     let h = 330.0;
     let (x0, x1, y0, y1) = (70.0, W - 220.0, 30.0, h - 40.0);
     let ax = Axis {
@@ -925,7 +925,7 @@ pub fn render(ev: &Evaluation, s: &Scenario, checks: &[Check]) -> Result<String>
     );
     figure(
         &mut h,
-        &chart_monthly_solar_fraction(ev),
+        &chart_monthly_solar_share(ev),
         "(2) Monthly solar share of cooling, %: cooling made from solar heat or own PV / cooling \
          load, for the options that have one; a gap is a month without cooling load.",
     );
