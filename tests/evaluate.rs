@@ -160,3 +160,47 @@ fn electric_reference_meets_load_with_plausible_cop() {
         assert!(range.contains(&cop), "{name}: seasonal COP {cop}");
     }
 }
+
+/// A reference chiller smaller than the building's peak is flagged: the clinic with a 50 kW
+/// chiller leaves load unmet, and the evaluation says so (terminal and JSON), naming the peak.
+#[test]
+fn undersized_reference_is_flagged() {
+    let path = format!(
+        "{}/scenarios/port-meridian-clinic.toml",
+        env!("CARGO_MANIFEST_DIR")
+    );
+    let text = std::fs::read_to_string(&path)
+        .unwrap()
+        .replace("capacity_kw = 160.0 ", "capacity_kw = 50.0 ");
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("scenarios");
+    let l = scenario::Loaded {
+        scenario: scenario::from_str("small.toml", &text).unwrap(),
+        path: dir.join("small.toml"),
+        base_dir: dir,
+    };
+    let ev = build::evaluate(&l).unwrap();
+    let r = ev
+        .options
+        .iter()
+        .find(|o| o.option == ev.reference)
+        .unwrap();
+    assert!(r.annual.unmet_hours > 0);
+    assert!(r.annual.peak_load_kw > 50.0);
+    let w = parhelion::feasibility::warnings(&ev);
+    assert_eq!(w.len(), 1, "{w:?}");
+    assert!(
+        w[0].contains(&format!("{:.0} kW", r.annual.peak_load_kw)),
+        "{}",
+        w[0]
+    );
+    let table = parhelion::report::table::feasibility(&ev);
+    assert!(table.contains("Warning: the reference `grid-chiller` leaves"));
+    let json = String::from_utf8(parhelion::report::json::render(&ev).unwrap()).unwrap();
+    assert!(
+        json.contains("\"warnings\": [\n    \"the reference"),
+        "{}",
+        &json[..400]
+    );
+    // The demo's own 160 kW chiller meets its peak: no warning.
+    assert!(parhelion::feasibility::warnings(&demo("port-meridian-clinic")).is_empty());
+}

@@ -208,6 +208,12 @@ pub const FIGURES: &[Figure] = &[
         "Cooling load of the building (sensible + latent)."
     ),
     fig!(
+        peak_load_kw,
+        "peak load",
+        Power,
+        "Largest hourly cooling load (kWh in the hour = mean kW); `peak_load_hour` is its hour of the year."
+    ),
+    fig!(
         cooling_kwh,
         "cooling",
         Energy,

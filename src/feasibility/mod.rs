@@ -29,6 +29,9 @@ use serde::Serialize;
 #[derive(Debug, Clone, Default, Serialize)]
 pub struct Totals {
     pub load_kwh: f64,
+    /// Largest hourly cooling load, kW, and the hour of the year it falls in.
+    pub peak_load_kw: f64,
+    pub peak_load_hour: u32,
     pub cooling_kwh: f64,
     /// Cooling by source (the hourly record's `cooling_*`), kWh.
     pub cooling_solar_kwh: f64,
@@ -144,6 +147,10 @@ impl Totals {
             t.machine_starts += r.machine_starts;
             t.startup_heat_kwh += r.startup_heat_kwh;
             t.unmet_hours += u32::from(r.unmet_kwh > 1e-6);
+            if r.load_kwh > t.peak_load_kw {
+                t.peak_load_kw = r.load_kwh;
+                t.peak_load_hour = r.hour as u32;
+            }
             t.pump_hours += r.pump_hours;
             t.max_balance_error_rel = t.max_balance_error_rel.max(r.balance_error_rel);
             t.max_plant_balance_rel = t.max_plant_balance_rel.max(r.plant_balance_rel());
@@ -164,6 +171,26 @@ impl Totals {
         t.collector_yield_kwh_m2 = ratio(t.solar_heat_kwh, gross_m2);
         t
     }
+}
+
+/// What a study must not miss about an evaluation: a reference chiller that leaves load unmet
+/// (every option is then compared with a plant that does less than the building needs).
+pub fn warnings(ev: &Evaluation) -> Vec<String> {
+    let mut w = Vec::new();
+    if let Some(r) = ev.options.iter().find(|o| o.option == ev.reference) {
+        let a = &r.annual;
+        if a.unmet_hours > 0 {
+            w.push(format!(
+                "the reference `{}` leaves {:.1} MWh of cooling unmet in {} h (peak load {:.0} kW at hour {} of the year): its chiller is smaller than the building's peak, so every option is compared with a plant that does less than the building needs — size `[baseline] capacity_kw` to the peak",
+                r.option,
+                a.unmet_kwh / 1000.0,
+                a.unmet_hours,
+                a.peak_load_kw,
+                a.peak_load_hour
+            ));
+        }
+    }
+    w
 }
 
 /// Monthly totals, January first.

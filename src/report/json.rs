@@ -1,4 +1,4 @@
-//! The JSON summary: `{ scenario, version, caution, reference, weather, load, options: [ {
+//! The JSON summary: `{ scenario, version, caution, reference, weather, load, warnings, options: [ {
 //! option, route, description, gross_collector_m2, store_m3, annual: {..}, monthly: [..] } ] }`.
 //! Keys of `annual` and of each `monthly` entry are those of the hourly CSV where the two
 //! share a quantity (units in the names). README lists them; they are stable.
@@ -15,6 +15,8 @@ struct Doc<'a> {
     reference: &'a str,
     weather: &'a str,
     load: &'a str,
+    /// What a study must not miss (`feasibility::warnings`).
+    warnings: Vec<String>,
     options: Vec<Opt<'a>>,
 }
 
@@ -45,6 +47,7 @@ pub fn render(ev: &Evaluation) -> Result<Vec<u8>> {
         reference: &ev.reference,
         weather: &ev.weather_origin,
         load: &ev.load_origin,
+        warnings: crate::feasibility::warnings(ev),
         options: ev
             .options
             .iter()

@@ -105,6 +105,7 @@ pub const TABLES: [(&str, &[&str]); 6] = [
         "Cooling by source over the year",
         &[
             "load_kwh",
+            "peak_load_kw",
             "cooling_kwh",
             "cooling_solar_kwh",
             "cooling_backup_heat_kwh",
@@ -212,6 +213,14 @@ pub fn feasibility(ev: &Evaluation) -> String {
             out.push_str(&reason_hours(ev));
         }
     }
+    out.push_str(
+        &crate::feasibility::warnings(ev)
+            .iter()
+            .fold(String::new(), |mut s, w| {
+                s.push_str(&format!("\nWarning: {w}\n"));
+                s
+            }),
+    );
     out.push_str(&ranking(ev));
     out.push_str(&format!("\n{}\n", crate::SCREENING_CAUTION));
     out
