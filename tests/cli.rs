@@ -339,6 +339,21 @@ fn absurd_latitude() {
     );
 }
 
+/// A tank of one litre (a unit slip: `volume_m3 = 0.001`) is refused at its physical floor
+/// (robustness issue: it took 37 s to simulate, 1e-12 m³ never ended).
+#[test]
+fn tiny_tank_is_refused() {
+    let t = demo_text().replace("volume_m3 = 4.0 ", "volume_m3 = 0.001 ");
+    assert_bad(
+        "tiny-tank",
+        &t,
+        &[
+            "options.grid-chiller-solar-dhw.storage.volume_m3 = 0.001",
+            "at least 0.05",
+        ],
+    );
+}
+
 #[test]
 fn negative_area() {
     let t = demo_text().replace("gross_area_m2 = 60.0 ", "gross_area_m2 = -5.0 ");

@@ -154,6 +154,26 @@ fn sweep_runs_a_grid_and_refuses_bad_ranges() {
 fn exploration_bad_input() {
     let s = demo("port-meridian-clinic");
     let s = s.to_str().unwrap();
+    // Bounded work (robustness issue): a step so small its count overflows an integer, a grid
+    // of 10⁸ designs and absurd sample counts are refused with exit 2, never a panic or abort.
+    let key = "options.solar-absorption.field.gross_area_m2";
+    let (code, err) = run(&["sweep", s, "--set", &format!("{key}=100:400:1e-17")]);
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("100 000 values"), "{err}");
+    let (code, err) = run(&[
+        "sweep",
+        s,
+        "--set",
+        &format!("{key}=1:10000:1"),
+        "--set",
+        "options.solar-absorption.storage.volume_m3=1:10000:1",
+    ]);
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("at most 100000 designs"), "{err}");
+    for n in ["18446744073709551615", "1000000000"] {
+        let (code, err) = run(&["uncertainty", s, "--samples", n]);
+        assert_eq!(code, 2, "{n}: {err}");
+    }
     // A key that does not exist: named, with a suggestion.
     let (code, err) = run(&[
         "sweep",

@@ -23,6 +23,10 @@ pub fn interrupted() -> bool {
     STOP.load(Ordering::SeqCst)
 }
 
+/// Most designs a sweep, and samples an uncertainty run, may ask for (bounded work: about a
+/// day of evaluations on two cores at the clinic demo's speed).
+const MAX_DESIGNS: usize = 100_000;
+
 fn progress(n: usize, quiet: bool) -> ProgressBar {
     let pb = ProgressBar::new(n as u64);
     if quiet || !std::io::stderr().is_terminal() {
@@ -315,6 +319,17 @@ pub fn sweep(a: SweepArgs) -> Result<(Vec<u8>, String), Error> {
         study.check_key(k, values[0])?;
         axes.push((k.to_string(), values));
     }
+    // Bounded work: the grid is the product of the axes.
+    let n_designs = axes.iter().fold(1.0f64, |n, (_, v)| n * v.len() as f64);
+    if n_designs > MAX_DESIGNS as f64 {
+        return Err(Error::input(
+            "--set",
+            format!("{n_designs:.0} designs"),
+            format!(
+                "at most {MAX_DESIGNS} designs (the product of the axes' values): use larger steps or fewer axes"
+            ),
+        ));
+    }
     let designs = explore::grid(&axes);
     let n = designs.len();
     let pb = progress(n, a.quiet);
@@ -430,8 +445,12 @@ pub struct UncertaintyArgs<'a> {
 
 /// `parhelion uncertainty`: the summary text and the per-sample CSV.
 pub fn uncertainty(a: UncertaintyArgs) -> Result<(String, Vec<u8>), Error> {
-    if a.samples == 0 {
-        return Err(Error::input("--samples", 0, "at least 1 sample"));
+    if a.samples == 0 || a.samples > MAX_DESIGNS {
+        return Err(Error::input(
+            "--samples",
+            a.samples,
+            format!("at least 1 sample and at most {MAX_DESIGNS}"),
+        ));
     }
     check_figure(a.figure, None)?;
     let study = Study::new(a.scenario)?;

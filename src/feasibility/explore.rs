@@ -168,14 +168,16 @@ pub fn parse_range(key: &str, spec: &str) -> Result<Vec<f64>> {
     if !(a.is_finite() && b.is_finite() && s.is_finite() && s > 0.0 && b >= a) {
         return Err(bad());
     }
-    let count = ((b - a) / s + 0.5).floor() as usize + 1;
-    if count > 100_000 {
+    // Counted in floating point first: a tiny step would overflow an integer.
+    let count_f = ((b - a) / s + 0.5).floor() + 1.0;
+    if !(count_f.is_finite() && count_f <= 100_000.0) {
         return Err(Error::input(
             key,
             spec,
             "more than 100 000 values: use a larger step",
         ));
     }
+    let count = count_f as usize;
     Ok((0..count).map(|i| a + s * i as f64).collect())
 }
 

@@ -600,15 +600,19 @@ fn storage(st: &StorageSection) -> Result<()> {
     };
     match st.kind {
         StorageKind::Tank => {
-            positive(
+            // Physical floors: a store smaller than a domestic cylinder (50 L, 0.2 m) is a unit
+            // slip, and the tank's stable sub-step shrinks with its volume (bounded work).
+            in_range(
                 "volume_m3",
                 need("volume_m3", st.volume_m3)?,
+                0.05,
                 10_000.0,
-                "tank volume, m³",
+                "tank volume, m³ (at least 0.05 m³ = 50 L)",
             )?;
-            positive(
+            in_range(
                 "height_m",
                 need("height_m", st.height_m)?,
+                0.2,
                 50.0,
                 "tank height, m",
             )?;
@@ -633,11 +637,12 @@ fn storage(st: &StorageSection) -> Result<()> {
             }
         }
         StorageKind::Pcm => {
-            positive(
+            in_range(
                 "mass_kg",
                 need("mass_kg", st.mass_kg)?,
+                5.0,
                 1.0e7,
-                "PCM mass, kg",
+                "PCM mass, kg (at least 5 kg)",
             )?;
             positive(
                 "cp_solid_j_kgk",
