@@ -173,6 +173,35 @@ impl Totals {
     }
 }
 
+/// The guard that keeps non-finite numbers out of every output: every figure of the registry,
+/// for the year and each month of each option, is finite where defined.
+///
+/// Errors: `Internal` naming the figure, the option and the month (a bug to report: accepted
+/// input must never produce one).
+pub fn check_finite(ev: &Evaluation) -> crate::Result<()> {
+    for o in &ev.options {
+        let periods = std::iter::once(("the year".to_string(), &o.annual)).chain(
+            o.monthly
+                .iter()
+                .enumerate()
+                .map(|(m, t)| (format!("month {}", m + 1), t)),
+        );
+        for (when, t) in periods {
+            for f in figures::FIGURES {
+                if let Some(v) = (f.get)(t)
+                    && !v.is_finite()
+                {
+                    return Err(crate::Error::Internal(format!(
+                        "{} = {v} for option {} over {when} (a bug: please report it with the scenario)",
+                        f.key, o.option
+                    )));
+                }
+            }
+        }
+    }
+    Ok(())
+}
+
 /// What a study must not miss about an evaluation: a reference chiller that leaves load unmet
 /// (every option is then compared with a plant that does less than the building needs).
 pub fn warnings(ev: &Evaluation) -> Vec<String> {
@@ -255,4 +284,39 @@ pub struct Evaluation {
     /// Where the weather came from, and whether beam/diffuse were derived.
     pub weather_origin: String,
     pub load_origin: String,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The guard names the figure, the option and the period of a non-finite value.
+    #[test]
+    fn non_finite_figures_are_refused() {
+        let mut t = Totals::default();
+        let ok = Evaluation {
+            scenario: "s".into(),
+            currency: "CU".into(),
+            reference: "a".into(),
+            options: vec![OptionResult::new(
+                "a".into(),
+                "electric",
+                None,
+                0.0,
+                None,
+                Vec::new(),
+            )],
+            weather_origin: String::new(),
+            load_origin: String::new(),
+        };
+        assert!(check_finite(&ok).is_ok());
+        t.cop_thermal = Some(f64::INFINITY);
+        let mut bad = ok.clone();
+        bad.options[0].annual = t;
+        let e = check_finite(&bad).unwrap_err().to_string();
+        assert!(
+            e.contains("cop_thermal") && e.contains("option a") && e.contains("the year"),
+            "{e}"
+        );
+    }
 }

@@ -391,7 +391,17 @@ pub fn render(ev: &Evaluation) -> Result<Vec<u8>> {
                     d.to_string(),
                     h.to_string(),
                 ];
-                row.extend(RECORD_COLUMNS.iter().map(|c| (c.get)(r)));
+                for c in RECORD_COLUMNS {
+                    let cell = (c.get)(r);
+                    // No non-finite number leaves the program: a bug, named for the report.
+                    if cell.contains("NaN") || cell.contains("inf") {
+                        return Err(Error::Internal(format!(
+                            "hourly CSV: {} = {cell} for option {} at hour {} (a bug: please report it with the scenario)",
+                            c.name, o.option, r.hour
+                        )));
+                    }
+                    row.push(cell);
+                }
                 row.push(
                     r.detail
                         .iter()

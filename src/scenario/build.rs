@@ -666,6 +666,7 @@ pub fn run_with_substeps(
     // Figures against the reference need every option; a subset (one option of a sweep) gets
     // what it can: its own energy and cost, no comparison.
     crate::feasibility::metrics::apply(&l.scenario, &mut ev)?;
+    crate::feasibility::check_finite(&ev)?;
     Ok(ev)
 }
 
