@@ -203,13 +203,6 @@ impl Tank {
         self.t_c[self.n - 1]
     }
 
-    /// Mass of water from the top down that is at or above `t_c`, kg: the nodes from the top
-    /// until the first colder one (what a draw from the top can take at `t_c` or more).
-    pub fn mass_at_or_above_kg(&self, t_c: f64) -> f64 {
-        let n = self.t_c[..self.n].iter().take_while(|&&t| t >= t_c).count();
-        n as f64 * self.m_node_kg
-    }
-
     /// Mass-weighted mean temperature, °C (nodes have equal mass).
     pub fn t_mean_c(&self) -> f64 {
         self.t_c[..self.n].iter().sum::<f64>() / self.n as f64

@@ -39,21 +39,6 @@ impl Store {
         }
     }
 
-    /// Mass a draw from the top can take at `t_c` or more, kg (a phase-change store, one
-    /// temperature: all or nothing).
-    pub fn mass_at_or_above_kg(&self, t_c: f64) -> f64 {
-        match self {
-            Store::Tank(t) => t.mass_at_or_above_kg(t_c),
-            Store::Pcm(p) => {
-                if p.temperature_c() >= t_c {
-                    f64::INFINITY
-                } else {
-                    0.0
-                }
-            }
-        }
-    }
-
     /// Mean temperature, °C (reported as the store temperature).
     pub fn t_mean_c(&self) -> f64 {
         match self {
