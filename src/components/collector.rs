@@ -71,6 +71,21 @@ pub enum CollectorKind {
     Uncovered,
 }
 
+impl CollectorKind {
+    /// Effective thermal capacity (ISO 9806 c5) of the class when a collector gives none,
+    /// kJ/(m²·K) on the collector's area basis: flat plate 7, evacuated tube 12, concentrating
+    /// (a receiver tube) 5, uncovered (a water-filled absorber mat) 10 (common practice; typical
+    /// values of the classes, from memory).
+    pub fn default_capacity_kj_m2k(self) -> f64 {
+        match self {
+            CollectorKind::FlatPlate => 7.0,
+            CollectorKind::EvacuatedTube => 12.0,
+            CollectorKind::Concentrating => 5.0,
+            CollectorKind::Uncovered => 10.0,
+        }
+    }
+}
+
 /// The outdoor conditions the collector sees in one hour.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Ambient {

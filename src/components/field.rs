@@ -7,6 +7,8 @@
 //! The pipe length is split half to the supply and half to the return run, both losing heat
 //! to the ambient air temperature.
 
+#[cfg(doc)]
+use super::collector::CollectorKind;
 use super::collector::{Ambient, CollectorSpec};
 use super::pipe::Pipe;
 use crate::error::Result;
@@ -93,11 +95,16 @@ impl Field {
         self.flow_kg_s_m2 * self.area_m2()
     }
 
-    /// Effective thermal capacity of all modules, J/K (0 when the collector gives none):
-    /// `c5 · area_m2`, c5 in J/(m²K) from `c5_j_m2k` or `1000 · heat_capacity_kj_m2k`
-    /// ([`CollectorSpec::c5_j_m2k()`]). Kept for the plant's warm-up energy.
+    /// Effective thermal capacity of all modules, J/K: `c5 · area_m2`, c5 in J/(m²K) from
+    /// `c5_j_m2k` or `1000 · heat_capacity_kj_m2k` ([`CollectorSpec::c5_j_m2k()`]), else the
+    /// class default ([`CollectorKind::default_capacity_kj_m2k`]). The plant's field node
+    /// carries it (with the pipes').
     pub fn heat_capacity_j_k(&self) -> f64 {
-        self.collector.c5_j_m2k().unwrap_or(0.0) * self.area_m2()
+        let c5 = self
+            .collector
+            .c5_j_m2k()
+            .unwrap_or_else(|| 1000.0 * self.collector.kind.default_capacity_kj_m2k());
+        c5 * self.area_m2()
     }
 
     /// Steady state with the pump running: supply pipe (half the length, loss to `ta_c`) →

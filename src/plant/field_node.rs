@@ -24,20 +24,6 @@
 
 use crate::components::field::Field;
 
-/// Default effective thermal capacity of a collector by kind, kJ/(m²·K) on the collector's
-/// area basis, when the collector gives none: flat plate 7, evacuated tube 12, concentrating
-/// (a receiver tube) 5, uncovered (a water-filled absorber mat) 10 (common practice; typical
-/// ISO 9806 c5 values of the classes, from memory).
-pub fn default_capacity_kj_m2k(kind: crate::components::collector::CollectorKind) -> f64 {
-    use crate::components::collector::CollectorKind as K;
-    match kind {
-        K::FlatPlate => 7.0,
-        K::EvacuatedTube => 12.0,
-        K::Concentrating => 5.0,
-        K::Uncovered => 10.0,
-    }
-}
-
 /// Default heat capacity of the loop's pipes per metre (supply + return), J/(m·K): a water-filled
 /// DN 25 copper pipe, 0.49 L/m of water (2.05 kJ/K) and 0.64 kg/m of copper (0.25 kJ/K) (common
 /// practice).

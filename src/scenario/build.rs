@@ -580,10 +580,8 @@ fn solar_loop(
     let gross = field.gross_m2();
     // The field's heat capacity: the collectors' effective capacity (ISO 9806 c5, or the
     // class default) on their area basis, plus the pipes and their fluid.
-    let c_collectors = field.collector.c5_j_m2k().unwrap_or_else(|| {
-        1000.0 * crate::plant::field_node::default_capacity_kj_m2k(field.collector.kind)
-    }) * field.area_m2();
-    let field_capacity_j_k = c_collectors + f.pipe_heat_capacity_j_mk * f.pipe_length_m;
+    let field_capacity_j_k =
+        field.heat_capacity_j_k() + f.pipe_heat_capacity_j_mk * f.pipe_length_m;
     Ok((
         SolarLoop {
             pump_w: f.pump_w_m2 * gross,
