@@ -30,7 +30,7 @@
 //! evaluations) ≈ 40 residual evaluations of ~14 property calls each, plus two tower Brent
 //! solves (~12 psychrometric evaluations each).
 
-use super::conventional::{Conventional, MIN_CONDENSER_WATER_C};
+use super::conventional::Conventional;
 use super::{Cooling, Electricity};
 use super::{HeatRequest, HeatSupplied, HourConditions, Memo, Reason, Route, RouteHour};
 use crate::components::absorption_cycle::{CyclePoint, Machine, Mode, Rating};
@@ -535,10 +535,10 @@ impl Absorption {
         at(t).ok().filter(|q| q.q_evap_kw > 0.0)
     }
 
-    /// The machine's cooling-water set-point: wet-bulb + its tower's design approach, at
-    /// least [`MIN_CONDENSER_WATER_C`] (the rule of the baseline's tower).
+    /// The machine's cooling-water set-point: the baseline tower's rule with this tower's
+    /// design approach.
     fn t_set_c(&self, c: &HourConditions) -> f64 {
-        (c.t_wb_c + self.spec.tower.design_approach_k).max(MIN_CONDENSER_WATER_C)
+        super::conventional::tower_set_point_c(c, self.spec.tower.design_approach_k)
     }
 }
 

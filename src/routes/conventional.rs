@@ -28,6 +28,12 @@ use crate::error::Result;
 /// commonly controlled to a minimum of about 18 °C to protect the chiller (common practice).
 pub const MIN_CONDENSER_WATER_C: f64 = 18.0;
 
+/// The cold-water set-point every tower's variable-speed fan holds, °C: wet-bulb + the
+/// tower's design approach, at least [`MIN_CONDENSER_WATER_C`].
+pub fn tower_set_point_c(c: &HourConditions, design_approach_k: f64) -> f64 {
+    (c.t_wb_c + design_approach_k).max(MIN_CONDENSER_WATER_C)
+}
+
 /// The conventional plant: chiller, tower (water-cooled) and pumps.
 #[derive(Debug, Clone)]
 pub struct Conventional {
@@ -81,10 +87,9 @@ impl Conventional {
         Ok(Conventional { chiller, tower })
     }
 
-    /// The tower's cold-water set-point this hour, °C: wet-bulb + the tower's design approach,
-    /// at least [`MIN_CONDENSER_WATER_C`].
+    /// The tower's cold-water set-point this hour, °C ([`tower_set_point_c`]).
     pub fn t_set_c(&self, c: &HourConditions) -> f64 {
-        (c.t_wb_c + self.chiller.tower.design_approach_k).max(MIN_CONDENSER_WATER_C)
+        tower_set_point_c(c, self.chiller.tower.design_approach_k)
     }
 
     /// Serve `load_kw` (kW averaged over the hour) this hour (module docs). A non-positive or

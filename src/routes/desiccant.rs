@@ -406,8 +406,6 @@ pub struct DesiccantHour {
     /// Sensible and latent cooling delivered by the unit (negative: the supply adds load), kWh.
     pub sensible_kwh: f64,
     pub latent_kwh: f64,
-    /// Cooling by the backup chiller's post-cooling coil, kWh.
-    pub backup_cooling_kwh: f64,
     /// The backup chiller plant's hour (zero without one).
     pub backup: ConventionalHour,
     /// Load met by neither, kWh.
@@ -980,7 +978,6 @@ impl Desiccant {
             w_supply_kg_kg: s.w_kg_kg,
             sensible_kwh: sens,
             latent_kwh: lat,
-            backup_cooling_kwh: backup.cooling_kwh,
             backup,
             unmet_kwh: unmet,
             t_regen_c: wheel.map(|(t, _)| t),
@@ -1006,7 +1003,6 @@ impl Desiccant {
             w_supply_kg_kg: self.spec.w_room_kg_kg,
             sensible_kwh: 0.0,
             latent_kwh: 0.0,
-            backup_cooling_kwh: 0.0,
             backup: ConventionalHour::default(),
             unmet_kwh: 0.0,
             t_regen_c: None,
@@ -1252,7 +1248,7 @@ mod tests {
         let h = u.solve_hour(&c, None).unwrap();
         assert_eq!(h.reason, DesiccantReason::LatentLimit, "{h:?}");
         assert_eq!(h.t_regen_c, Some(75.0));
-        assert!(h.backup_cooling_kwh > 0.0 && h.unmet_kwh < 1e-9);
+        assert!(h.backup.cooling_kwh > 0.0 && h.unmet_kwh < 1e-9);
         // A store at 90 °C (the plant passes its top while the unit is enabled): hot enough
         // for the highest regeneration temperature through the coil (90 − 2 − 5 ≥ 75 °C).
         let rh = u.run(
@@ -1443,7 +1439,7 @@ mod tests {
         assert!((cold.latent_kwh - lat).abs() < 1e-9, "{cold:?}");
         let credited = (cold.sensible_kwh + cold.latent_kwh).max(0.0);
         assert!(
-            (cold.backup_cooling_kwh + cold.unmet_kwh - (40.0 - credited)).abs() < 1e-9,
+            (cold.backup.cooling_kwh + cold.unmet_kwh - (40.0 - credited)).abs() < 1e-9,
             "{cold:?}"
         );
     }
